@@ -1,0 +1,9 @@
+//! Chemistry data: elements, the molecule model and file formats.
+
+pub mod ao;
+pub mod element;
+pub mod io;
+pub mod molecule;
+
+pub use element::{Element, ElementError};
+pub use molecule::{Atom, Bond, Molecule, MoleculeError};

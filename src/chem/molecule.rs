@@ -1,0 +1,680 @@
+//! The molecule model: atoms with positions in Å, a net charge, a name and a bond list.
+//!
+//! Bond perception: two atoms are bonded when their distance is below 1.15 × the sum of
+//! their covalent radii (DESIGN §4.1; the 15 % margin is common practice, no source).
+//! Internal coordinates follow the usual definitions (e.g. Wilson, Decius and Cross,
+//! *Molecular Vibrations*, 1955): the dihedral I–J–K–L is the signed angle between the
+//! planes IJK and JKL, positive clockwise looking along J→K (IUPAC).
+
+use nalgebra::{Rotation3, Unit, Vector3};
+use serde::{Deserialize, Serialize};
+use thiserror::Error;
+
+use super::element::Element;
+
+/// Largest molecule the program accepts.
+pub const MAX_ATOMS: usize = 500;
+/// Atoms closer than this (Å) are rejected as coincident.
+pub const MIN_SEPARATION: f64 = 0.5;
+/// Coordinates beyond this magnitude (Å) are rejected as absurd.
+pub const MAX_COORDINATE: f64 = 1.0e4;
+/// Bonded when d < BOND_TOLERANCE × (r_a + r_b).
+pub const BOND_TOLERANCE: f64 = 1.15;
+
+/// One atom: element and Cartesian position in Å.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct Atom {
+    pub element: Element,
+    pub position: Vector3<f64>,
+}
+
+impl Atom {
+    pub fn new(element: Element, position: [f64; 3]) -> Atom {
+        Atom {
+            element,
+            position: Vector3::from(position),
+        }
+    }
+}
+
+/// A bond between atoms `a` < `b` (0-based) with a formal order (1, 2, 3).
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+pub struct Bond {
+    pub a: usize,
+    pub b: usize,
+    pub order: u8,
+}
+
+impl Bond {
+    /// A bond with its ends stored in ascending order.
+    pub fn new(a: usize, b: usize, order: u8) -> Bond {
+        Bond {
+            a: a.min(b),
+            b: a.max(b),
+            order,
+        }
+    }
+
+    pub fn other(&self, atom: usize) -> Option<usize> {
+        if self.a == atom {
+            Some(self.b)
+        } else if self.b == atom {
+            Some(self.a)
+        } else {
+            None
+        }
+    }
+}
+
+/// Why a molecule is not acceptable for analysis.
+#[derive(Debug, Clone, PartialEq, Error)]
+pub enum MoleculeError {
+    #[error("the molecule has no atoms")]
+    Empty,
+    #[error("{count} atoms is more than the limit of {MAX_ATOMS}")]
+    TooManyAtoms { count: usize },
+    #[error("atom {atom} has a non-finite coordinate")]
+    NonFiniteCoordinate { atom: usize },
+    #[error("atom {atom} has a coordinate beyond ±{MAX_COORDINATE} Å")]
+    AbsurdCoordinate { atom: usize },
+    #[error("atoms {a} and {b} are {distance:.3} Å apart, closer than {MIN_SEPARATION} Å")]
+    CoincidentAtoms { a: usize, b: usize, distance: f64 },
+    #[error(
+        "the molecule has {electrons} valence electrons (charge {charge}); at least one is needed"
+    )]
+    NoElectrons { electrons: i64, charge: i32 },
+    #[error("atom index {index} is out of range (the molecule has {count} atoms)")]
+    AtomIndexOutOfRange { index: usize, count: usize },
+    #[error("atoms {0:?} must all be different")]
+    RepeatedAtoms(Vec<usize>),
+    #[error("atoms {a} and {b} are not bonded")]
+    NotBonded { a: usize, b: usize },
+    #[error("bond {a}–{b} lies in a ring; its fragments cannot be moved apart")]
+    BondInRing { a: usize, b: usize },
+    #[error("{what} of {value} is not possible")]
+    ImpossibleValue { what: &'static str, value: f64 },
+}
+
+/// A molecule: atoms, net charge, a name and its bonds.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct Molecule {
+    pub name: String,
+    pub atoms: Vec<Atom>,
+    pub charge: i32,
+    pub bonds: Vec<Bond>,
+}
+
+impl Molecule {
+    /// A molecule with bonds perceived from distances.
+    pub fn new(name: impl Into<String>, atoms: Vec<Atom>, charge: i32) -> Molecule {
+        let mut molecule = Molecule {
+            name: name.into(),
+            atoms,
+            charge,
+            bonds: Vec::new(),
+        };
+        molecule.perceive_bonds();
+        molecule
+    }
+
+    pub fn len(&self) -> usize {
+        self.atoms.len()
+    }
+
+    pub fn is_empty(&self) -> bool {
+        self.atoms.is_empty()
+    }
+
+    /// Replaces the bond list with single bonds between atoms closer than
+    /// 1.15 × (r_a + r_b). Orders of bonds that survive are kept.
+    pub fn perceive_bonds(&mut self) {
+        let old = std::mem::take(&mut self.bonds);
+        for a in 0..self.atoms.len() {
+            for b in a + 1..self.atoms.len() {
+                let limit = BOND_TOLERANCE
+                    * (self.atoms[a].element.covalent_radius()
+                        + self.atoms[b].element.covalent_radius());
+                if self.distance_unchecked(a, b) < limit {
+                    let order = old
+                        .iter()
+                        .find(|bond| bond.a == a && bond.b == b)
+                        .map_or(1, |bond| bond.order);
+                    self.bonds.push(Bond::new(a, b, order));
+                }
+            }
+        }
+    }
+
+    /// Sets the order of bond a–b, adding it if absent; order 0 removes it.
+    pub fn set_bond_order(&mut self, a: usize, b: usize, order: u8) -> Result<(), MoleculeError> {
+        self.check_indices(&[a, b])?;
+        let key = Bond::new(a, b, order);
+        self.bonds
+            .retain(|bond| !(bond.a == key.a && bond.b == key.b));
+        if order > 0 {
+            self.bonds.push(key);
+            self.bonds.sort_by_key(|bond| (bond.a, bond.b));
+        }
+        Ok(())
+    }
+
+    pub fn bond(&self, a: usize, b: usize) -> Option<&Bond> {
+        let (a, b) = (a.min(b), a.max(b));
+        self.bonds.iter().find(|bond| bond.a == a && bond.b == b)
+    }
+
+    /// Indices of the atoms bonded to `atom`, ascending.
+    pub fn neighbours(&self, atom: usize) -> Vec<usize> {
+        let mut list: Vec<usize> = self.bonds.iter().filter_map(|b| b.other(atom)).collect();
+        list.sort_unstable();
+        list
+    }
+
+    /// Σ valence electrons − charge (may be ≤ 0 for absurd charges; see `validate`).
+    pub fn electron_count(&self) -> i64 {
+        let valence: i64 = self
+            .atoms
+            .iter()
+            .map(|atom| atom.element.valence_electrons() as i64)
+            .sum();
+        valence - self.charge as i64
+    }
+
+    /// Checks everything the analysis relies on; errors name the atoms.
+    pub fn validate(&self) -> Result<(), MoleculeError> {
+        if self.atoms.is_empty() {
+            return Err(MoleculeError::Empty);
+        }
+        if self.atoms.len() > MAX_ATOMS {
+            return Err(MoleculeError::TooManyAtoms {
+                count: self.atoms.len(),
+            });
+        }
+        for (index, atom) in self.atoms.iter().enumerate() {
+            if atom.position.iter().any(|x| !x.is_finite()) {
+                return Err(MoleculeError::NonFiniteCoordinate { atom: index });
+            }
+            if atom.position.iter().any(|x| x.abs() > MAX_COORDINATE) {
+                return Err(MoleculeError::AbsurdCoordinate { atom: index });
+            }
+        }
+        for a in 0..self.atoms.len() {
+            for b in a + 1..self.atoms.len() {
+                let distance = self.distance_unchecked(a, b);
+                if distance < MIN_SEPARATION {
+                    return Err(MoleculeError::CoincidentAtoms { a, b, distance });
+                }
+            }
+        }
+        let electrons = self.electron_count();
+        if electrons <= 0 {
+            return Err(MoleculeError::NoElectrons {
+                electrons,
+                charge: self.charge,
+            });
+        }
+        Ok(())
+    }
+
+    /// Formula in Hill order: C first, then H, then the rest alphabetically; without
+    /// carbon, all alphabetically. A charge is appended as "+", "2−" style text.
+    pub fn formula(&self) -> String {
+        use std::collections::BTreeMap;
+        let mut counts: BTreeMap<&str, usize> = BTreeMap::new();
+        for atom in &self.atoms {
+            *counts.entry(atom.element.symbol()).or_default() += 1;
+        }
+        let mut order: Vec<&str> = Vec::new();
+        if counts.contains_key("C") {
+            order.push("C");
+            if counts.contains_key("H") {
+                order.push("H");
+            }
+        }
+        for symbol in counts.keys() {
+            if !order.contains(symbol) {
+                order.push(symbol);
+            }
+        }
+        let mut text = String::new();
+        for symbol in order {
+            text.push_str(symbol);
+            if counts[symbol] > 1 {
+                text.push_str(&counts[symbol].to_string());
+            }
+        }
+        match self.charge {
+            0 => {}
+            1 => text.push('+'),
+            -1 => text.push('−'),
+            c if c > 0 => text.push_str(&format!("{c}+")),
+            c => text.push_str(&format!("{}−", -c)),
+        }
+        text
+    }
+
+    pub fn total_mass(&self) -> f64 {
+        self.atoms.iter().map(|a| a.element.mass()).sum()
+    }
+
+    /// Mass-weighted centre (Å).
+    pub fn centre_of_mass(&self) -> Vector3<f64> {
+        let mass = self.total_mass();
+        if mass <= 0.0 {
+            return Vector3::zeros();
+        }
+        self.atoms
+            .iter()
+            .map(|a| a.position * a.element.mass())
+            .sum::<Vector3<f64>>()
+            / mass
+    }
+
+    fn check_indices(&self, indices: &[usize]) -> Result<(), MoleculeError> {
+        for &index in indices {
+            if index >= self.atoms.len() {
+                return Err(MoleculeError::AtomIndexOutOfRange {
+                    index,
+                    count: self.atoms.len(),
+                });
+            }
+        }
+        for (i, a) in indices.iter().enumerate() {
+            if indices[i + 1..].contains(a) {
+                return Err(MoleculeError::RepeatedAtoms(indices.to_vec()));
+            }
+        }
+        Ok(())
+    }
+
+    fn distance_unchecked(&self, a: usize, b: usize) -> f64 {
+        (self.atoms[a].position - self.atoms[b].position).norm()
+    }
+
+    /// Distance a–b in Å.
+    pub fn distance(&self, a: usize, b: usize) -> Result<f64, MoleculeError> {
+        self.check_indices(&[a, b])?;
+        Ok(self.distance_unchecked(a, b))
+    }
+
+    /// Angle i–j–k in degrees (j is the vertex).
+    pub fn angle(&self, i: usize, j: usize, k: usize) -> Result<f64, MoleculeError> {
+        self.check_indices(&[i, j, k])?;
+        let u = self.atoms[i].position - self.atoms[j].position;
+        let v = self.atoms[k].position - self.atoms[j].position;
+        Ok(angle_between(&u, &v).to_degrees())
+    }
+
+    /// Dihedral i–j–k–l in degrees, in (−180, 180].
+    pub fn dihedral(&self, i: usize, j: usize, k: usize, l: usize) -> Result<f64, MoleculeError> {
+        self.check_indices(&[i, j, k, l])?;
+        let p = |n: usize| self.atoms[n].position;
+        let b1 = p(j) - p(i);
+        let b2 = p(k) - p(j);
+        let b3 = p(l) - p(k);
+        let n1 = b1.cross(&b2);
+        let n2 = b2.cross(&b3);
+        // IUPAC sign (Gold Book, "torsion angle"): positive when the front bond turns
+        // clockwise to eclipse the rear bond, looking along j→k.
+        let y = b2.norm() * b1.dot(&n2);
+        let x = n1.dot(&n2);
+        Ok(y.atan2(x).to_degrees())
+    }
+
+    /// Atoms reachable from `start` through bonds without crossing the bond start–`blocked`.
+    fn fragment(&self, start: usize, blocked: usize) -> Vec<bool> {
+        let mut seen = vec![false; self.atoms.len()];
+        let mut stack = vec![start];
+        seen[start] = true;
+        while let Some(atom) = stack.pop() {
+            for next in self.neighbours(atom) {
+                if (atom == start && next == blocked) || seen[next] {
+                    continue;
+                }
+                seen[next] = true;
+                stack.push(next);
+            }
+        }
+        seen
+    }
+
+    /// The side of the i–j bond (or pseudo-bond) to move: the smaller one. Returns
+    /// (mask of atoms to move, whether the moved side is j's). Errors if i and j are
+    /// joined by another path (a ring).
+    fn moving_side(&self, i: usize, j: usize) -> Result<(Vec<bool>, bool), MoleculeError> {
+        let side_j = self.fragment(j, i);
+        if side_j[i] {
+            return Err(MoleculeError::BondInRing { a: i, b: j });
+        }
+        let side_i = self.fragment(i, j);
+        let count = |mask: &[bool]| mask.iter().filter(|&&m| m).count();
+        if count(&side_j) <= count(&side_i) {
+            Ok((side_j, true))
+        } else {
+            Ok((side_i, false))
+        }
+    }
+
+    /// Sets distance i–j to `length` Å by moving the smaller fragment along the axis.
+    pub fn set_distance(&mut self, i: usize, j: usize, length: f64) -> Result<(), MoleculeError> {
+        self.check_indices(&[i, j])?;
+        if !(length.is_finite() && length >= MIN_SEPARATION) {
+            return Err(MoleculeError::ImpossibleValue {
+                what: "a bond length",
+                value: length,
+            });
+        }
+        let (mask, moves_j) = self.moving_side(i, j)?;
+        let axis = self.atoms[j].position - self.atoms[i].position;
+        let current = axis.norm();
+        let direction = axis / current;
+        let shift = direction * (length - current) * if moves_j { 1.0 } else { -1.0 };
+        self.translate_mask(&mask, shift);
+        Ok(())
+    }
+
+    /// Sets angle i–j–k to `degrees` by rotating the smaller of the fragments on i's or
+    /// k's side about the normal of the i–j–k plane through j.
+    pub fn set_angle(
+        &mut self,
+        i: usize,
+        j: usize,
+        k: usize,
+        degrees: f64,
+    ) -> Result<(), MoleculeError> {
+        self.check_indices(&[i, j, k])?;
+        if !(degrees.is_finite() && degrees > 0.0 && degrees <= 180.0) {
+            return Err(MoleculeError::ImpossibleValue {
+                what: "an angle",
+                value: degrees,
+            });
+        }
+        let (mask, moves_k) = self.moving_side(j, k)?;
+        let mask = if moves_k && !mask[i] {
+            mask
+        } else {
+            let (mask_i, _) = self.moving_side(j, i)?;
+            if mask_i[k] {
+                return Err(MoleculeError::BondInRing { a: i, b: k });
+            }
+            // Rotate i's side the other way instead.
+            let current = self.angle(i, j, k)?;
+            let axis = self.angle_axis(i, j, k);
+            self.rotate_mask(&mask_i, j, axis, -(degrees - current).to_radians());
+            return Ok(());
+        };
+        let current = self.angle(i, j, k)?;
+        let axis = self.angle_axis(i, j, k);
+        self.rotate_mask(&mask, j, axis, (degrees - current).to_radians());
+        Ok(())
+    }
+
+    /// Unit normal of the i–j–k plane, oriented so that a positive rotation about it
+    /// takes j→i toward j→k; any perpendicular for a straight angle.
+    fn angle_axis(&self, i: usize, j: usize, k: usize) -> Unit<Vector3<f64>> {
+        let u = self.atoms[i].position - self.atoms[j].position;
+        let v = self.atoms[k].position - self.atoms[j].position;
+        let normal = u.cross(&v);
+        if normal.norm() > 1e-8 * u.norm() * v.norm() {
+            Unit::new_normalize(normal)
+        } else {
+            Unit::new_normalize(any_perpendicular(&u))
+        }
+    }
+
+    /// Sets dihedral i–j–k–l to `degrees` by rotating the smaller side about the j–k axis.
+    pub fn set_dihedral(
+        &mut self,
+        i: usize,
+        j: usize,
+        k: usize,
+        l: usize,
+        degrees: f64,
+    ) -> Result<(), MoleculeError> {
+        self.check_indices(&[i, j, k, l])?;
+        if !degrees.is_finite() {
+            return Err(MoleculeError::ImpossibleValue {
+                what: "a dihedral",
+                value: degrees,
+            });
+        }
+        let (mask, moves_k) = self.moving_side(j, k)?;
+        let current = self.dihedral(i, j, k, l)?;
+        let axis_vector = self.atoms[k].position - self.atoms[j].position;
+        if axis_vector.norm() < 1e-8 {
+            return Err(MoleculeError::CoincidentAtoms {
+                a: j,
+                b: k,
+                distance: 0.0,
+            });
+        }
+        let axis = Unit::new_normalize(axis_vector);
+        // A right-handed turn of l's side about j→k looks clockwise along j→k, so it
+        // raises the dihedral; turning i's side instead lowers it.
+        let delta = (degrees - current).to_radians();
+        let signed = if moves_k { delta } else { -delta };
+        self.rotate_mask(&mask, j, axis, signed);
+        Ok(())
+    }
+
+    fn translate_mask(&mut self, mask: &[bool], shift: Vector3<f64>) {
+        for (atom, &moves) in self.atoms.iter_mut().zip(mask) {
+            if moves {
+                atom.position += shift;
+            }
+        }
+    }
+
+    fn rotate_mask(&mut self, mask: &[bool], pivot: usize, axis: Unit<Vector3<f64>>, angle: f64) {
+        let centre = self.atoms[pivot].position;
+        let rotation = Rotation3::from_axis_angle(&axis, angle);
+        for (atom, &moves) in self.atoms.iter_mut().zip(mask) {
+            if moves {
+                atom.position = centre + rotation * (atom.position - centre);
+            }
+        }
+    }
+
+    /// Moves every atom by `shift` Å.
+    pub fn translate(&mut self, shift: Vector3<f64>) {
+        for atom in &mut self.atoms {
+            atom.position += shift;
+        }
+    }
+
+    /// Rotates every atom about `centre`.
+    pub fn rotate_about(&mut self, rotation: &Rotation3<f64>, centre: Vector3<f64>) {
+        for atom in &mut self.atoms {
+            atom.position = centre + rotation * (atom.position - centre);
+        }
+    }
+}
+
+/// Angle between two vectors in radians, robust near 0 and π.
+pub fn angle_between(u: &Vector3<f64>, v: &Vector3<f64>) -> f64 {
+    u.cross(v).norm().atan2(u.dot(v))
+}
+
+/// A unit vector perpendicular to `v` (v must be non-zero).
+pub fn any_perpendicular(v: &Vector3<f64>) -> Vector3<f64> {
+    let trial = if v.x.abs() < 0.9 * v.norm() {
+        Vector3::x()
+    } else {
+        Vector3::y()
+    };
+    v.cross(&trial).normalize()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// Methane with C at the origin and H on alternate cube corners (ideal Td).
+    fn methane() -> Molecule {
+        let s = 1.087 / 3f64.sqrt();
+        Molecule::new(
+            "methane",
+            vec![
+                Atom::new(Element::C, [0.0, 0.0, 0.0]),
+                Atom::new(Element::H, [s, s, s]),
+                Atom::new(Element::H, [-s, -s, s]),
+                Atom::new(Element::H, [-s, s, -s]),
+                Atom::new(Element::H, [s, -s, -s]),
+            ],
+            0,
+        )
+    }
+
+    fn hydrogen_peroxide() -> Molecule {
+        Molecule::new(
+            "hydrogen peroxide",
+            vec![
+                Atom::new(Element::H, [0.9, 0.6, 0.3]),
+                Atom::new(Element::O, [0.0, 0.7, 0.0]),
+                Atom::new(Element::O, [0.0, -0.7, 0.0]),
+                Atom::new(Element::H, [0.9, -0.6, -0.3]),
+            ],
+            0,
+        )
+    }
+
+    #[test]
+    fn tetrahedral_angle_is_arccos_minus_one_third() {
+        // Hand value: arccos(−1/3) = 109.4712206…°.
+        let m = methane();
+        for (i, k) in [(1, 2), (1, 3), (2, 4), (3, 4)] {
+            assert!((m.angle(i, 0, k).unwrap() - 109.471_220_634).abs() < 1e-8);
+        }
+        assert!((m.distance(0, 1).unwrap() - 1.087).abs() < 1e-12);
+    }
+
+    #[test]
+    fn bonds_are_perceived_from_covalent_radii() {
+        let m = methane();
+        assert_eq!(m.bonds.len(), 4);
+        assert_eq!(m.neighbours(0), vec![1, 2, 3, 4]);
+        assert!(m.bond(1, 2).is_none());
+    }
+
+    #[test]
+    fn dihedral_sign_and_value() {
+        // Hand-built: H on +x above O1, other H rotated by 90° about the O–O axis.
+        let m = Molecule::new(
+            "h2o2",
+            vec![
+                Atom::new(Element::H, [1.0, 0.0, 0.0]),
+                Atom::new(Element::O, [0.0, 0.0, 0.0]),
+                Atom::new(Element::O, [0.0, 0.0, 1.4]),
+                Atom::new(Element::H, [0.0, 1.0, 1.4]),
+            ],
+            0,
+        );
+        // Looking along O1→O2 (+z), the front H on +x turns clockwise by 90° onto the
+        // rear H on +y: +90° by the IUPAC convention.
+        assert!((m.dihedral(0, 1, 2, 3).unwrap() - 90.0).abs() < 1e-9);
+    }
+
+    #[test]
+    fn set_internal_coordinates() {
+        let mut m = hydrogen_peroxide();
+        m.set_distance(1, 2, 1.475).unwrap();
+        assert!((m.distance(1, 2).unwrap() - 1.475).abs() < 1e-12);
+        m.set_angle(0, 1, 2, 94.8).unwrap();
+        assert!((m.angle(0, 1, 2).unwrap() - 94.8).abs() < 1e-9);
+        for target in [111.5, -60.0, 180.0, 0.0] {
+            m.set_dihedral(0, 1, 2, 3, target).unwrap();
+            let got = m.dihedral(0, 1, 2, 3).unwrap();
+            let diff = (got - target + 540.0).rem_euclid(360.0) - 180.0;
+            assert!(diff.abs() < 1e-8, "wanted {target}, got {got}");
+        }
+        // Bond lengths survive angle and dihedral changes.
+        assert!((m.distance(1, 2).unwrap() - 1.475).abs() < 1e-10);
+    }
+
+    #[test]
+    fn set_angle_moves_the_smaller_fragment_only() {
+        let mut m = methane();
+        let before = m.atoms[1].position;
+        m.set_angle(1, 0, 2, 100.0).unwrap();
+        assert!((m.angle(1, 0, 2).unwrap() - 100.0).abs() < 1e-9);
+        let moved = (0..5)
+            .filter(|&n| (m.atoms[n].position - methane().atoms[n].position).norm() > 1e-12)
+            .count();
+        assert_eq!(moved, 1);
+        let _ = before;
+    }
+
+    #[test]
+    fn ring_bonds_cannot_be_stretched_alone() {
+        let r = 1.51 / 3f64.sqrt();
+        let mut ring = Molecule::new(
+            "c3",
+            vec![
+                Atom::new(Element::C, [r, 0.0, 0.0]),
+                Atom::new(Element::C, [-r / 2.0, 0.755, 0.0]),
+                Atom::new(Element::C, [-r / 2.0, -0.755, 0.0]),
+            ],
+            0,
+        );
+        assert_eq!(ring.bonds.len(), 3);
+        assert!(matches!(
+            ring.set_distance(0, 1, 1.6),
+            Err(MoleculeError::BondInRing { .. })
+        ));
+    }
+
+    #[test]
+    fn formula_in_hill_order() {
+        assert_eq!(methane().formula(), "CH4");
+        assert_eq!(hydrogen_peroxide().formula(), "H2O2");
+        let mut ion = Molecule::new(
+            "nh4+",
+            vec![
+                Atom::new(Element::N, [0.0, 0.0, 0.0]),
+                Atom::new(Element::H, [0.6, 0.6, 0.6]),
+            ],
+            1,
+        );
+        assert_eq!(ion.formula(), "HN+");
+        ion.charge = -2;
+        assert_eq!(ion.formula(), "HN2−");
+    }
+
+    #[test]
+    fn validation_names_the_atoms() {
+        let mut m = methane();
+        assert_eq!(m.validate(), Ok(()));
+        assert_eq!(m.electron_count(), 8);
+        m.atoms[3].position = m.atoms[2].position + Vector3::new(0.1, 0.0, 0.0);
+        assert!(matches!(
+            m.validate(),
+            Err(MoleculeError::CoincidentAtoms { a: 2, b: 3, .. })
+        ));
+        let mut m = methane();
+        m.atoms[4].position.x = f64::NAN;
+        assert_eq!(
+            m.validate(),
+            Err(MoleculeError::NonFiniteCoordinate { atom: 4 })
+        );
+        let mut m = methane();
+        m.atoms[1].position.y = 2e4;
+        assert_eq!(
+            m.validate(),
+            Err(MoleculeError::AbsurdCoordinate { atom: 1 })
+        );
+        let mut m = methane();
+        m.charge = 8;
+        assert!(matches!(
+            m.validate(),
+            Err(MoleculeError::NoElectrons { .. })
+        ));
+        assert!(m.angle(0, 0, 1).is_err());
+        assert!(m.distance(0, 9).is_err());
+    }
+
+    #[test]
+    fn centre_of_mass_of_symmetric_molecule_is_the_centre() {
+        let m = methane();
+        assert!(m.centre_of_mass().norm() < 1e-12);
+    }
+}

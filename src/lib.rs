@@ -1,0 +1,5 @@
+//! Diptych: the delocalized (symmetry MOs) and localized (directed hybrids) pictures of a
+//! molecule's bonding, computed from one geometry. This library is pure computation and
+//! knows nothing of any GUI toolkit; `src/main.rs` and `src/app/` are thin shells over it.
+
+pub mod chem;
