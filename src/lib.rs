@@ -2,4 +2,8 @@
 //! molecule's bonding, computed from one geometry. This library is pure computation and
 //! knows nothing of any GUI toolkit; `src/main.rs` and `src/app/` are thin shells over it.
 
+pub mod analysis;
 pub mod chem;
+pub mod hybrid;
+pub mod project;
+pub mod report;

@@ -1,0 +1,126 @@
+//! The menu bar and the file dialogs. Dialogs run on their own thread (rfd's portal
+//! dialogs block), and their answer comes back through a channel polled every frame.
+
+use std::path::PathBuf;
+use std::sync::mpsc::{Receiver, Sender, channel};
+
+use eframe::egui;
+
+use super::state::AppState;
+
+/// What a finished dialog asks for.
+pub enum DialogAnswer {
+    Open(PathBuf),
+    SaveAs(PathBuf),
+}
+
+/// Open dialogs in flight.
+pub struct Dialogs {
+    sender: Sender<DialogAnswer>,
+    receiver: Receiver<DialogAnswer>,
+}
+
+impl Default for Dialogs {
+    fn default() -> Self {
+        let (sender, receiver) = channel();
+        Dialogs { sender, receiver }
+    }
+}
+
+impl Dialogs {
+    pub fn ask_open(&self) {
+        let sender = self.sender.clone();
+        std::thread::spawn(move || {
+            let picked = rfd::FileDialog::new()
+                .set_title("Open a molecule or project")
+                .add_filter("Molecules and projects", &["xyz", "mol", "sdf", "ron"])
+                .add_filter("All files", &["*"])
+                .pick_file();
+            if let Some(path) = picked {
+                let _ = sender.send(DialogAnswer::Open(path));
+            }
+        });
+    }
+
+    pub fn ask_save_as(&self, suggested: String) {
+        let sender = self.sender.clone();
+        std::thread::spawn(move || {
+            let picked = rfd::FileDialog::new()
+                .set_title("Save the project")
+                .set_file_name(format!("{suggested}.diptych.ron"))
+                .add_filter("Diptych project", &["ron"])
+                .save_file();
+            if let Some(path) = picked {
+                let _ = sender.send(DialogAnswer::SaveAs(path));
+            }
+        });
+    }
+
+    /// Applies the answers that arrived.
+    pub fn apply(&self, state: &mut AppState) {
+        for answer in self.receiver.try_iter() {
+            match answer {
+                DialogAnswer::Open(path) => state.open(path),
+                DialogAnswer::SaveAs(path) => state.save_to(path),
+            }
+        }
+    }
+}
+
+/// Saves to the known project path, or asks for one.
+pub fn save(state: &mut AppState, dialogs: &Dialogs) {
+    match state.project_path() {
+        Some(path) => state.save_to(path),
+        None => dialogs.ask_save_as(state.project.molecule.name.clone()),
+    }
+}
+
+/// Handles Ctrl+O, Ctrl+S and Ctrl+Shift+S.
+pub fn handle_shortcuts(ui: &egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
+    use egui::{Key, KeyboardShortcut, Modifiers};
+    let save_as = KeyboardShortcut::new(Modifiers::COMMAND | Modifiers::SHIFT, Key::S);
+    let save_shortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::S);
+    let open = KeyboardShortcut::new(Modifiers::COMMAND, Key::O);
+    // The longer shortcut is consumed first so that Ctrl+Shift+S is not read as Ctrl+S.
+    if ui.input_mut(|input| input.consume_shortcut(&save_as)) {
+        dialogs.ask_save_as(state.project.molecule.name.clone());
+    } else if ui.input_mut(|input| input.consume_shortcut(&save_shortcut)) {
+        save(state, dialogs);
+    }
+    if ui.input_mut(|input| input.consume_shortcut(&open)) {
+        dialogs.ask_open();
+    }
+}
+
+/// File and View menus.
+pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
+    egui::MenuBar::new().ui(ui, |ui| {
+        ui.menu_button("File", |ui| {
+            if ui.button("Open…  (Ctrl+O)").clicked() {
+                dialogs.ask_open();
+                ui.close();
+            }
+            if ui.button("Save project  (Ctrl+S)").clicked() {
+                save(state, dialogs);
+                ui.close();
+            }
+            if ui.button("Save project as…  (Ctrl+Shift+S)").clicked() {
+                dialogs.ask_save_as(state.project.molecule.name.clone());
+                ui.close();
+            }
+        });
+        ui.menu_button("View", |ui| {
+            ui.checkbox(&mut state.camera.show_labels, "Atom labels");
+            if ui
+                .checkbox(&mut state.project.view.dark_theme, "Dark theme")
+                .changed()
+            {
+                state.dirty = true;
+            }
+            if ui.button("Reset view").clicked() {
+                state.camera = Default::default();
+                ui.close();
+            }
+        });
+    });
+}

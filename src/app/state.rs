@@ -1,0 +1,189 @@
+//! The GUI's state: the open document (a `Project`), where it lives on disk, whether it
+//! has unsaved changes, the last good `Analysis` and the view state of the panels.
+
+use std::path::PathBuf;
+use std::sync::Arc;
+
+use diptych::analysis::Analysis;
+use diptych::chem::Molecule;
+use diptych::chem::io::xyz::parse_xyz;
+use diptych::project::{Opened, Project, open_path};
+use eframe::egui;
+
+use super::structure_view::Camera;
+use super::worker::AnalysisWorker;
+
+/// The demo molecule shown at start-up (DESIGN §7).
+const DEFAULT_MOLECULE: &str = include_str!("../../demo_molecules/ammonia.xyz");
+
+/// Everything the window shows.
+pub struct AppState {
+    pub project: Project,
+    pub path: Option<PathBuf>,
+    pub dirty: bool,
+    /// The last successful analysis; kept on screen when a newer run fails.
+    pub analysis: Option<Arc<Analysis>>,
+    /// Generation of the document that `analysis` belongs to.
+    analysed_generation: u64,
+    pub analysis_error: Option<String>,
+    generation: u64,
+    worker: AnalysisWorker,
+    pub selected_atom: Option<usize>,
+    pub camera: Camera,
+    /// One-line message for the status bar.
+    pub status: String,
+    /// An error to show in a dialog until dismissed.
+    pub error_dialog: Option<String>,
+}
+
+/// The built-in ammonia molecule.
+pub fn default_molecule() -> Molecule {
+    // The embedded file is part of the program; if it were ever broken, a one-atom
+    // placeholder keeps the window usable.
+    parse_xyz(DEFAULT_MOLECULE, "ammonia")
+        .map(|parsed| parsed.molecule)
+        .unwrap_or_else(|_| {
+            Molecule::new(
+                "nitrogen",
+                vec![diptych::chem::Atom::new(
+                    diptych::chem::Element::N,
+                    [0.0; 3],
+                )],
+                0,
+            )
+        })
+}
+
+impl AppState {
+    pub fn new(context: egui::Context, opened: Option<(Opened, PathBuf)>) -> AppState {
+        let (project, path, status) = match opened {
+            Some((opened, path)) => {
+                let status = opened.notices.join("; ");
+                (opened.project, Some(path), status)
+            }
+            None => (Project::new(default_molecule()), None, String::new()),
+        };
+        let mut state = AppState {
+            project,
+            path,
+            dirty: false,
+            analysis: None,
+            analysed_generation: 0,
+            analysis_error: None,
+            generation: 0,
+            worker: AnalysisWorker::start(context),
+            selected_atom: None,
+            camera: Camera::default(),
+            status,
+            error_dialog: None,
+        };
+        state.document_changed();
+        state.dirty = false;
+        state
+    }
+
+    /// Call after every change of the molecule or settings: schedules a new analysis.
+    pub fn document_changed(&mut self) {
+        self.generation += 1;
+        self.dirty = true;
+        self.worker.request(
+            self.generation,
+            &self.project.molecule,
+            &self.project.settings,
+        );
+    }
+
+    /// Whether an analysis of the current document is still running.
+    pub fn is_computing(&self) -> bool {
+        self.analysed_generation < self.generation && self.analysis_error.is_none()
+    }
+
+    /// Takes finished analyses from the worker; stale ones are dropped.
+    pub fn receive_results(&mut self) {
+        for outcome in self.worker.poll() {
+            if outcome.generation < self.analysed_generation {
+                continue;
+            }
+            match outcome.result {
+                Ok(analysis) => {
+                    self.analysis = Some(analysis);
+                    self.analysis_error = None;
+                }
+                Err(message) => {
+                    // Keep the last good analysis on screen; say why it is not current.
+                    self.analysis_error = Some(message);
+                }
+            }
+            self.analysed_generation = outcome.generation;
+        }
+    }
+
+    /// Replaces the document with a file's contents; on failure the current document stays.
+    pub fn open(&mut self, path: PathBuf) {
+        match open_path(&path) {
+            Ok(opened) => {
+                self.project = opened.project;
+                self.status = if opened.notices.is_empty() {
+                    format!("Opened {}", path.display())
+                } else {
+                    opened.notices.join("; ")
+                };
+                self.path = Some(path);
+                self.selected_atom = None;
+                self.camera = Camera::default();
+                self.document_changed();
+                self.dirty = false;
+            }
+            Err(error) => {
+                self.error_dialog = Some(format!("Could not open the file.\n\n{error}"));
+            }
+        }
+    }
+
+    /// Saves the project to `path` (atomically) and remembers the path.
+    pub fn save_to(&mut self, path: PathBuf) {
+        let path = with_project_extension(path);
+        match self.project.save(&path) {
+            Ok(()) => {
+                self.status = format!("Saved {}", path.display());
+                self.path = Some(path);
+                self.dirty = false;
+            }
+            Err(error) => {
+                self.error_dialog = Some(format!("Could not save the project.\n\n{error}"))
+            }
+        }
+    }
+
+    /// The path to save to without asking, if the document came from a project file.
+    pub fn project_path(&self) -> Option<PathBuf> {
+        self.path
+            .clone()
+            .filter(|path| diptych::project::is_project_path(path))
+    }
+
+    /// Window title: name, file and an unsaved-changes mark.
+    pub fn title(&self) -> String {
+        let mark = if self.dirty { " •" } else { "" };
+        match &self.path {
+            Some(path) => format!("Diptych — {}{mark}", path.display()),
+            None => format!("Diptych — {}{mark}", self.project.molecule.name),
+        }
+    }
+}
+
+/// Adds `.diptych.ron` unless the name already ends with it.
+fn with_project_extension(path: PathBuf) -> PathBuf {
+    if diptych::project::is_project_path(&path) {
+        return path;
+    }
+    let mut name = path
+        .file_name()
+        .map(|n| n.to_os_string())
+        .unwrap_or_default();
+    if name.is_empty() {
+        name.push("untitled");
+    }
+    name.push(diptych::project::PROJECT_EXTENSION);
+    path.with_file_name(name)
+}

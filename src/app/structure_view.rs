@@ -1,0 +1,214 @@
+//! The Structure panel's 3D view: an orthographic ball-and-stick drawing made with egui's
+//! painter (painter's algorithm: far items first). Drag rotates, the wheel zooms, a click
+//! selects the front-most atom under the pointer.
+
+use diptych::chem::Molecule;
+use eframe::egui::{self, Align2, Color32, FontId, Pos2, Rect, Sense, Stroke, Vec2};
+use nalgebra::{Rotation3, Vector3};
+
+use super::theme::{ACCENT, element_colour, mix};
+
+/// Orientation and zoom of the view.
+#[derive(Clone, Debug)]
+pub struct Camera {
+    pub rotation: Rotation3<f64>,
+    /// Multiplies the fit-to-panel scale.
+    pub zoom: f32,
+    pub show_labels: bool,
+}
+
+impl Default for Camera {
+    fn default() -> Self {
+        // A slight tilt so that a molecule built along z does not look flat.
+        Camera {
+            rotation: Rotation3::from_euler_angles(-1.2, 0.0, 0.35),
+            zoom: 1.0,
+            show_labels: true,
+        }
+    }
+}
+
+/// What the user did in the view this frame.
+#[derive(Default)]
+pub struct ViewEvents {
+    pub clicked_atom: Option<usize>,
+    pub clicked_background: bool,
+}
+
+/// Radius of an atom's ball in Å: a fraction of its covalent radius.
+fn ball_radius(covalent_radius: f64) -> f32 {
+    (0.08 + 0.22 * covalent_radius) as f32
+}
+
+struct Projected {
+    screen: Pos2,
+    depth: f64,
+    radius: f32,
+}
+
+enum Item {
+    Atom(usize),
+    Bond(usize),
+}
+
+/// Draws the molecule into the available space and handles the mouse.
+pub fn show(
+    ui: &mut egui::Ui,
+    molecule: &Molecule,
+    camera: &mut Camera,
+    selected: Option<usize>,
+) -> ViewEvents {
+    let size = ui.available_size().max(Vec2::splat(80.0));
+    let (response, painter) = ui.allocate_painter(size, Sense::click_and_drag());
+    let rect = response.rect;
+    let mut events = ViewEvents::default();
+
+    if response.dragged_by(egui::PointerButton::Primary) {
+        let delta = response.drag_delta();
+        let turn = Rotation3::from_euler_angles(delta.y as f64 * 0.01, delta.x as f64 * 0.01, 0.0);
+        camera.rotation = turn * camera.rotation;
+    }
+    if response.hovered() {
+        let scroll = ui.input(|input| input.smooth_scroll_delta.y);
+        if scroll != 0.0 {
+            camera.zoom = (camera.zoom * (scroll * 0.002).exp()).clamp(0.1, 20.0);
+        }
+    }
+
+    let background = ui.visuals().extreme_bg_color;
+    painter.rect_filled(rect, 4.0, background);
+    if molecule.atoms.is_empty() {
+        return events;
+    }
+    let projected = project(molecule, camera, rect);
+
+    if response.clicked() {
+        if let Some(pointer) = response.interact_pointer_pos() {
+            events.clicked_atom = projected
+                .iter()
+                .enumerate()
+                .filter(|(_, p)| p.screen.distance(pointer) <= p.radius.max(6.0))
+                .max_by(|a, b| a.1.depth.total_cmp(&b.1.depth))
+                .map(|(index, _)| index);
+            events.clicked_background = events.clicked_atom.is_none();
+        }
+    }
+
+    let mut items: Vec<(f64, Item)> = Vec::new();
+    for (index, p) in projected.iter().enumerate() {
+        items.push((p.depth, Item::Atom(index)));
+    }
+    for (index, bond) in molecule.bonds.iter().enumerate() {
+        // A bond is drawn just behind the nearer of its two atoms.
+        let depth = projected[bond.a].depth.min(projected[bond.b].depth) - 1e-3;
+        items.push((depth, Item::Bond(index)));
+    }
+    items.sort_by(|a, b| a.0.total_cmp(&b.0));
+
+    let dark = ui.visuals().dark_mode;
+    let outline = if dark {
+        Color32::from_gray(20)
+    } else {
+        Color32::from_gray(60)
+    };
+    let pixels_per_angstrom = scale(molecule, camera, rect);
+    let bond_width = (0.14 * pixels_per_angstrom).clamp(2.0, 14.0);
+    for (_, item) in &items {
+        match *item {
+            Item::Bond(index) => {
+                let bond = molecule.bonds[index];
+                let (a, b) = (&projected[bond.a], &projected[bond.b]);
+                let middle = a.screen + (b.screen - a.screen) * 0.5;
+                let colour_a = element_colour(molecule.atoms[bond.a].element);
+                let colour_b = element_colour(molecule.atoms[bond.b].element);
+                painter.line_segment([a.screen, b.screen], Stroke::new(bond_width + 2.0, outline));
+                painter.line_segment([a.screen, middle], Stroke::new(bond_width, colour_a));
+                painter.line_segment([middle, b.screen], Stroke::new(bond_width, colour_b));
+                if bond.order > 1 {
+                    // Multiple bonds: thin light stripes along the stick, one per extra order.
+                    let direction = (b.screen - a.screen).normalized();
+                    let normal = Vec2::new(-direction.y, direction.x);
+                    for stripe in 1..bond.order {
+                        let offset =
+                            normal * bond_width * (stripe as f32 - bond.order as f32 / 2.0)
+                                / bond.order as f32;
+                        painter.line_segment(
+                            [a.screen + offset, b.screen + offset],
+                            Stroke::new(1.2, Color32::from_white_alpha(170)),
+                        );
+                    }
+                }
+            }
+            Item::Atom(index) => {
+                let p = &projected[index];
+                let element = molecule.atoms[index].element;
+                let colour = element_colour(element);
+                painter.circle_filled(p.screen, p.radius, colour);
+                let highlight = mix(colour, Color32::WHITE, 0.45);
+                painter.circle_filled(
+                    p.screen + Vec2::new(-0.3, -0.3) * p.radius,
+                    p.radius * 0.35,
+                    highlight,
+                );
+                painter.circle_stroke(p.screen, p.radius, Stroke::new(1.2, outline));
+                if selected == Some(index) {
+                    painter.circle_stroke(p.screen, p.radius + 4.0, Stroke::new(2.5, ACCENT));
+                }
+                if camera.show_labels {
+                    let text_colour = if dark {
+                        Color32::from_gray(230)
+                    } else {
+                        Color32::from_gray(25)
+                    };
+                    painter.text(
+                        p.screen + Vec2::new(p.radius * 0.75, -p.radius * 0.75),
+                        Align2::LEFT_BOTTOM,
+                        format!("{}{}", element.symbol(), index),
+                        FontId::proportional(12.0),
+                        text_colour,
+                    );
+                }
+            }
+        }
+    }
+    events
+}
+
+/// Pixels per Å so that the molecule fills about 80 % of the smaller panel side.
+fn scale(molecule: &Molecule, camera: &Camera, rect: Rect) -> f32 {
+    let centre = geometric_centre(molecule);
+    let extent = molecule
+        .atoms
+        .iter()
+        .map(|atom| {
+            (atom.position - centre).norm() + ball_radius(atom.element.covalent_radius()) as f64
+        })
+        .fold(0.5, f64::max);
+    (0.4 * rect.width().min(rect.height()) / extent as f32) * camera.zoom
+}
+
+fn geometric_centre(molecule: &Molecule) -> Vector3<f64> {
+    molecule
+        .atoms
+        .iter()
+        .map(|a| a.position)
+        .sum::<Vector3<f64>>()
+        / molecule.atoms.len().max(1) as f64
+}
+
+fn project(molecule: &Molecule, camera: &Camera, rect: Rect) -> Vec<Projected> {
+    let centre = geometric_centre(molecule);
+    let pixels = scale(molecule, camera, rect);
+    molecule
+        .atoms
+        .iter()
+        .map(|atom| {
+            let p = camera.rotation * (atom.position - centre);
+            Projected {
+                screen: rect.center() + Vec2::new(p.x as f32, -p.y as f32) * pixels,
+                depth: p.z,
+                radius: ball_radius(atom.element.covalent_radius()) * pixels,
+            }
+        })
+        .collect()
+}

@@ -1,0 +1,148 @@
+//! Command-line parsing (clap) and the subcommands of DESIGN §5.4.
+
+use std::io::Write;
+use std::path::{Path, PathBuf};
+use std::process::ExitCode;
+
+use clap::{Parser, Subcommand, ValueEnum};
+
+use diptych::analysis::{Analysis, Settings};
+use diptych::project::{Opened, open_path};
+use diptych::report;
+
+/// Diptych puts a molecule's two bonding pictures side by side: the delocalized,
+/// symmetry-labelled molecular orbitals and the localized directed hybrids, bonds and
+/// lone pairs, with correlation lines showing how they are the same wavefunction.
+///
+/// Run without a subcommand to open the desktop window (optionally on FILE).
+#[derive(Parser, Debug)]
+#[command(name = "diptych", version, args_conflicts_with_subcommands = true)]
+struct Cli {
+    #[command(subcommand)]
+    command: Option<Command>,
+
+    /// Open the real window, render a few frames, save a PNG screenshot and exit.
+    #[arg(long, value_name = "OUT.png")]
+    screenshot: Option<PathBuf>,
+
+    /// Molecule (.xyz, .mol, .sdf) or project (.diptych.ron) to open in the window.
+    file: Option<PathBuf>,
+}
+
+#[derive(Subcommand, Debug)]
+enum Command {
+    /// Analyse a molecule file and print the results (text or JSON).
+    Analyze {
+        /// Molecule (.xyz, .mol, .sdf) or project (.diptych.ron) file.
+        file: PathBuf,
+        /// Net charge of the molecule (overrides the file's).
+        #[arg(long, allow_hyphen_values = true)]
+        charge: Option<i32>,
+        /// Output format.
+        #[arg(long, value_enum, default_value_t = Format::Text)]
+        format: Format,
+    },
+}
+
+#[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
+enum Format {
+    Text,
+    Json,
+}
+
+/// Parses the arguments and runs the chosen command.
+pub fn main() -> ExitCode {
+    let cli = Cli::parse();
+    match cli.command {
+        Some(Command::Analyze {
+            file,
+            charge,
+            format,
+        }) => analyze(&file, charge, format),
+        None => open_window(cli.file, cli.screenshot),
+    }
+}
+
+/// Reads a file for a subcommand; prints the error and returns exit code 2 when it fails.
+fn open_for_cli(file: &Path, charge: Option<i32>) -> Result<Opened, ExitCode> {
+    let mut opened = open_path(file).map_err(|error| {
+        eprintln!("diptych: {error}");
+        ExitCode::from(2)
+    })?;
+    for notice in &opened.notices {
+        eprintln!("diptych: note: {notice}");
+    }
+    if let Some(charge) = charge {
+        opened.project.molecule.charge = charge;
+    }
+    Ok(opened)
+}
+
+fn run_analysis(opened: &Opened, settings: &Settings) -> Result<Analysis, ExitCode> {
+    let analysis = Analysis::run(&opened.project.molecule, settings).map_err(|error| {
+        eprintln!("diptych: {error}");
+        ExitCode::from(2)
+    })?;
+    for error in &analysis.errors {
+        eprintln!("diptych: {:?} stage failed: {}", error.stage, error.message);
+    }
+    Ok(analysis)
+}
+
+fn analyze(file: &Path, charge: Option<i32>, format: Format) -> ExitCode {
+    let result = open_for_cli(file, charge).and_then(|opened| {
+        let settings = opened.project.settings.clone();
+        run_analysis(&opened, &settings)
+    });
+    let analysis = match result {
+        Ok(analysis) => analysis,
+        Err(code) => return code,
+    };
+    let output = match format {
+        Format::Text => report::to_text(&analysis),
+        Format::Json => report::to_json(&analysis) + "\n",
+    };
+    print_or_fail(&output)
+}
+
+fn print_or_fail(output: &str) -> ExitCode {
+    let mut stdout = std::io::stdout().lock();
+    match stdout
+        .write_all(output.as_bytes())
+        .and_then(|_| stdout.flush())
+    {
+        Ok(()) => ExitCode::SUCCESS,
+        // A closed pipe (e.g. `| head`) is not an error of ours.
+        Err(error) if error.kind() == std::io::ErrorKind::BrokenPipe => ExitCode::SUCCESS,
+        Err(error) => {
+            eprintln!("diptych: cannot write the output: {error}");
+            ExitCode::from(1)
+        }
+    }
+}
+
+#[cfg(feature = "gui")]
+fn open_window(file: Option<PathBuf>, screenshot: Option<PathBuf>) -> ExitCode {
+    let opened = match file {
+        Some(path) => match open_for_cli(&path, None) {
+            Ok(opened) => Some((opened, path)),
+            Err(code) => return code,
+        },
+        None => None,
+    };
+    match crate::app::run(opened, screenshot) {
+        Ok(()) => ExitCode::SUCCESS,
+        Err(message) => {
+            eprintln!("diptych: {message}");
+            ExitCode::from(1)
+        }
+    }
+}
+
+#[cfg(not(feature = "gui"))]
+fn open_window(_file: Option<PathBuf>, _screenshot: Option<PathBuf>) -> ExitCode {
+    eprintln!(
+        "diptych: this build has no window (built without the 'gui' feature); use a subcommand, see --help"
+    );
+    ExitCode::from(2)
+}

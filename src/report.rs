@@ -1,0 +1,126 @@
+//! Text and JSON reports of an `Analysis` (DESIGN §5.5). The JSON keys are documented in
+//! the README; atom indices are 0-based in file order.
+
+use serde::Serialize;
+
+use crate::analysis::{Analysis, StageError};
+
+#[derive(Serialize)]
+struct AtomEntry {
+    index: usize,
+    element: &'static str,
+    x: f64,
+    y: f64,
+    z: f64,
+}
+
+#[derive(Serialize)]
+struct BondEntry {
+    a: usize,
+    b: usize,
+    order: u8,
+    length: f64,
+}
+
+#[derive(Serialize)]
+struct MoleculeEntry {
+    name: String,
+    formula: String,
+    charge: i32,
+    electrons: usize,
+    atoms: Vec<AtomEntry>,
+    bonds: Vec<BondEntry>,
+}
+
+#[derive(Serialize)]
+struct JsonReport<'a> {
+    molecule: MoleculeEntry,
+    electrons: usize,
+    errors: &'a [StageError],
+}
+
+fn molecule_entry(analysis: &Analysis) -> MoleculeEntry {
+    let molecule = &analysis.molecule;
+    MoleculeEntry {
+        name: molecule.name.clone(),
+        formula: analysis.formula.clone(),
+        charge: molecule.charge,
+        electrons: analysis.electrons,
+        atoms: molecule
+            .atoms
+            .iter()
+            .enumerate()
+            .map(|(index, atom)| AtomEntry {
+                index,
+                element: atom.element.symbol(),
+                x: atom.position.x,
+                y: atom.position.y,
+                z: atom.position.z,
+            })
+            .collect(),
+        bonds: molecule
+            .bonds
+            .iter()
+            .map(|bond| BondEntry {
+                a: bond.a,
+                b: bond.b,
+                order: bond.order,
+                length: (molecule.atoms[bond.a].position - molecule.atoms[bond.b].position).norm(),
+            })
+            .collect(),
+    }
+}
+
+/// The analysis as a pretty-printed JSON document.
+pub fn to_json(analysis: &Analysis) -> String {
+    let report = JsonReport {
+        molecule: molecule_entry(analysis),
+        electrons: analysis.electrons,
+        errors: &analysis.errors,
+    };
+    serde_json::to_string_pretty(&report)
+        .unwrap_or_else(|error| format!("{{\"internal_error\": \"{error}\"}}"))
+}
+
+/// The analysis as a plain-text report for the terminal.
+pub fn to_text(analysis: &Analysis) -> String {
+    let molecule = &analysis.molecule;
+    let mut text = String::new();
+    text.push_str(&format!(
+        "{} ({}), charge {}, {} valence electrons\n\n",
+        molecule.name, analysis.formula, molecule.charge, analysis.electrons
+    ));
+    text.push_str("Atoms (Å)\n");
+    for (index, atom) in molecule.atoms.iter().enumerate() {
+        text.push_str(&format!(
+            "  {index:>3} {:<2} {:>11.5} {:>11.5} {:>11.5}\n",
+            atom.element.symbol(),
+            atom.position.x,
+            atom.position.y,
+            atom.position.z
+        ));
+    }
+    text.push_str("\nBonds\n");
+    if molecule.bonds.is_empty() {
+        text.push_str("  (none)\n");
+    }
+    for bond in &molecule.bonds {
+        let length = (molecule.atoms[bond.a].position - molecule.atoms[bond.b].position).norm();
+        text.push_str(&format!(
+            "  {}{}–{}{}  order {}  {:.4} Å\n",
+            molecule.atoms[bond.a].element,
+            bond.a,
+            molecule.atoms[bond.b].element,
+            bond.b,
+            bond.order,
+            length
+        ));
+    }
+    for error in &analysis.errors {
+        text.push_str(&format!(
+            "\n{:?} stage failed: {}\n",
+            error.stage, error.message
+        ));
+    }
+    text
+}
