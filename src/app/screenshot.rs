@@ -79,7 +79,7 @@ impl ScreenshotTask {
     }
 }
 
-fn write_png(path: &PathBuf, image: &egui::ColorImage) -> Result<(), String> {
+fn write_png(path: &std::path::Path, image: &egui::ColorImage) -> Result<(), String> {
     let [width, height] = image.size;
     let mut bytes = Vec::with_capacity(width * height * 4);
     for pixel in &image.pixels {

@@ -82,8 +82,10 @@ pub fn show(
     }
     let projected = project(molecule, camera, rect);
 
-    if response.clicked() {
-        if let Some(pointer) = response.interact_pointer_pos() {
+    if response.clicked()
+        && let Some(pointer) = response.interact_pointer_pos()
+    {
+        {
             events.clicked_atom = projected
                 .iter()
                 .enumerate()

@@ -145,6 +145,46 @@ impl Molecule {
         }
     }
 
+    /// Raises bond orders so that atoms reach their usual valence (H 1, B 3, C 4, N 3,
+    /// O 2, halogens 1, Si 4, P 3, S 2): a greedy matching that first serves the atom
+    /// with the fewest unsaturated partners (common practice, no source). Gives C=O in
+    /// formaldehyde, C≡N in HCN and a Kekulé structure for benzene. Deterministic.
+    pub fn perceive_bond_orders(&mut self) {
+        let mut free: Vec<i32> = self
+            .atoms
+            .iter()
+            .map(|atom| usual_valence(atom.element).map_or(0, i32::from))
+            .collect();
+        for bond in &self.bonds {
+            free[bond.a] -= bond.order as i32;
+            free[bond.b] -= bond.order as i32;
+        }
+        loop {
+            let open = |bond: &Bond| free[bond.a] > 0 && free[bond.b] > 0;
+            let candidates = |atom: usize| {
+                self.bonds
+                    .iter()
+                    .filter(|bond| open(bond) && bond.other(atom).is_some())
+                    .count()
+            };
+            let choice = self
+                .bonds
+                .iter()
+                .enumerate()
+                .filter(|(_, bond)| open(bond))
+                .min_by_key(|(index, bond)| {
+                    let (ca, cb) = (candidates(bond.a), candidates(bond.b));
+                    (ca.min(cb), ca.max(cb), *index)
+                })
+                .map(|(index, _)| index);
+            let Some(index) = choice else { break };
+            let bond = &mut self.bonds[index];
+            bond.order += 1;
+            free[bond.a] -= 1;
+            free[bond.b] -= 1;
+        }
+    }
+
     /// Sets the order of bond a–b, adding it if absent; order 0 removes it.
     pub fn set_bond_order(&mut self, a: usize, b: usize, order: u8) -> Result<(), MoleculeError> {
         self.check_indices(&[a, b])?;
@@ -490,6 +530,18 @@ impl Molecule {
     }
 }
 
+/// The number of bonds a neutral main-group atom usually forms; None where no single
+/// value is usual (metals, noble gases, hypervalent-prone heavier atoms keep their bonds).
+pub fn usual_valence(element: Element) -> Option<u8> {
+    match element.symbol() {
+        "H" | "F" | "Cl" | "Br" | "Li" | "Na" | "K" => Some(1),
+        "O" | "S" | "Se" | "Be" | "Mg" | "Ca" => Some(2),
+        "B" | "N" | "P" | "As" | "Al" | "Ga" => Some(3),
+        "C" | "Si" | "Ge" => Some(4),
+        _ => None,
+    }
+}
+
 /// Angle between two vectors in radians, robust near 0 and π.
 pub fn angle_between(u: &Vector3<f64>, v: &Vector3<f64>) -> f64 {
     u.cross(v).norm().atan2(u.dot(v))
@@ -621,6 +673,50 @@ mod tests {
             ring.set_distance(0, 1, 1.6),
             Err(MoleculeError::BondInRing { .. })
         ));
+    }
+
+    #[test]
+    fn bond_orders_follow_usual_valences() {
+        let hcn = Molecule::new(
+            "hcn",
+            vec![
+                Atom::new(Element::H, [0.0, 0.0, -1.065]),
+                Atom::new(Element::C, [0.0, 0.0, 0.0]),
+                Atom::new(Element::N, [0.0, 0.0, 1.153]),
+            ],
+            0,
+        );
+        let mut hcn = hcn;
+        hcn.perceive_bond_orders();
+        assert_eq!(hcn.bond(1, 2).map(|b| b.order), Some(3));
+        assert_eq!(hcn.bond(0, 1).map(|b| b.order), Some(1));
+        // Benzene: a Kekulé structure, every carbon with exactly one double bond.
+        let mut atoms = Vec::new();
+        for k in 0..6 {
+            let phi = std::f64::consts::PI / 3.0 * k as f64;
+            atoms.push(Atom::new(
+                Element::C,
+                [1.39 * phi.cos(), 1.39 * phi.sin(), 0.0],
+            ));
+            atoms.push(Atom::new(
+                Element::H,
+                [2.47 * phi.cos(), 2.47 * phi.sin(), 0.0],
+            ));
+        }
+        let mut benzene = Molecule::new("benzene", atoms, 0);
+        benzene.perceive_bond_orders();
+        for carbon in (0..12).step_by(2) {
+            let doubles = benzene
+                .bonds
+                .iter()
+                .filter(|b| b.order == 2 && b.other(carbon).is_some())
+                .count();
+            assert_eq!(doubles, 1, "carbon {carbon}");
+        }
+        // Methane stays single-bonded.
+        let mut m = methane();
+        m.perceive_bond_orders();
+        assert!(m.bonds.iter().all(|b| b.order == 1));
     }
 
     #[test]

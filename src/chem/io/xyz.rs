@@ -59,10 +59,10 @@ pub fn parse_xyz(text: &str, name: &str) -> Result<Parsed, ParseError> {
         ));
     }
     // The comment line usually carries a source citation, so the name comes from the file.
-    Ok(Parsed {
-        molecule: Molecule::new(name, atoms, charge),
-        notices,
-    })
+    // XYZ has no bond orders: they are perceived from the usual valences.
+    let mut molecule = Molecule::new(name, atoms, charge);
+    molecule.perceive_bond_orders();
+    Ok(Parsed { molecule, notices })
 }
 
 fn parse_atom_line(line: &str, line_number: usize) -> Result<Atom, ParseError> {
