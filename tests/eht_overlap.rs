@@ -369,3 +369,40 @@ fn overlap_spectrum_is_rotation_invariant_with_d_shells() {
     // S of a real basis is positive definite.
     assert!(a[0] > 0.0);
 }
+
+mod properties {
+    use super::*;
+    use proptest::prelude::*;
+
+    proptest! {
+        #![proptest_config(ProptestConfig::with_cases(64))]
+        /// For random placements of two atoms (C and Cl) and a random rotation: S is
+        /// symmetric with unit diagonal, |S_ij| ≤ 1 (Cauchy–Schwarz for normalized
+        /// functions), and its spectrum does not change under rotation.
+        #[test]
+        fn overlap_is_bounded_and_rotation_invariant(
+            x in -2.0f64..2.0, y in -2.0f64..2.0, z in 0.6f64..3.0,
+            ax in -1.0f64..1.0, ay in -1.0f64..1.0, az in 0.1f64..1.0, angle in 0.0f64..6.3,
+        ) {
+            let params = ParameterSet::builtin().unwrap();
+            let molecule = Molecule::new("pair", vec![
+                Atom::new(Element::C, [0.0, 0.0, 0.0]),
+                Atom::new(Element::CL, [x, y, z]),
+                Atom::new(Element::H, [-x, 0.5 * y, -z]),
+            ], 0);
+            let s = overlap_matrix(&build_basis(&molecule, params, &[]).unwrap());
+            prop_assert!((&s - s.transpose()).abs().max() == 0.0);
+            for i in 0..s.nrows() {
+                prop_assert!((s[(i, i)] - 1.0).abs() < 1e-15);
+                for j in 0..s.ncols() {
+                    prop_assert!(s[(i, j)].abs() <= 1.0 + 1e-12);
+                }
+            }
+            let q = Rotation3::from_axis_angle(&Unit::new_normalize(Vector3::new(ax, ay, az)), angle);
+            let s_rot = overlap_matrix(&build_basis(&rotated(&molecule, &q), params, &[]).unwrap());
+            let a = symmetric_eigenvalues(&s).unwrap();
+            let b = symmetric_eigenvalues(&s_rot).unwrap();
+            prop_assert!((&a - &b).abs().max() < 1e-11);
+        }
+    }
+}

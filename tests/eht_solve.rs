@@ -265,6 +265,14 @@ fn near_coincident_atoms_are_a_typed_error() {
         }
         other => panic!("expected SingularOverlap, got {other:?}"),
     }
+    let message = run(&molecule, &EhtSettings::default())
+        .unwrap_err()
+        .to_string();
+    assert!(message.contains("atoms 0 and 1"), "{message}");
+    match run(&molecule, &EhtSettings::default()) {
+        Err(EhtError::SingularOverlap { .. }) => {}
+        other => panic!("expected SingularOverlap, got {other:?}"),
+    }
     // Two carbon atoms exactly on top of each other: identical functions, S singular.
     // (Different elements at one point are not singular: their STOs differ in ζ.)
     let molecule = diatomic(Element::C, Element::C, 0.0, 0);

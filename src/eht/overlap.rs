@@ -248,39 +248,53 @@ fn scaled_a(p: f64, kmax: usize, out: &mut [f64; MAX_POWER + 1]) {
 
 /// e^(−p) B_k(t) for k = 0..=kmax, with |t| ≤ p.
 fn scaled_b(t: f64, p: f64, kmax: usize, out: &mut [f64; MAX_POWER + 1]) {
-    let switch = (kmax as f64 + 1.0).max(2.0);
-    if t.abs() > switch {
-        // Upward recursion: B_k = ((−1)^k e^t − e^(−t) + k B_(k−1)) / t, stable for |t| > k.
-        let ep = (t - p).exp();
-        let em = (-t - p).exp();
-        out[0] = (ep - em) / t;
-        for k in 1..=kmax {
-            let sign = if k % 2 == 0 { 1.0 } else { -1.0 };
-            out[k] = (sign * ep - em + k as f64 * out[k - 1]) / t;
-        }
+    if t.abs() > series_limit(kmax) {
+        b_by_recursion(t, p, kmax, out);
     } else {
-        // Series: B_k(t) = Σ_j (−t)^j / j! · 2/(k+j+1) over k + j even; terms of one sign.
-        let scale = (-p).exp();
-        for (k, slot) in out.iter_mut().enumerate().take(kmax + 1) {
-            let mut sum = 0.0;
-            let mut term = 1.0; // (−t)^j / j!
-            let mut j = 0usize;
-            loop {
-                if (k + j).is_multiple_of(2) {
-                    let contribution = term * 2.0 / (k + j + 1) as f64;
-                    sum += contribution;
-                    if j > 2 * switch as usize && contribution.abs() <= 1e-17 * sum.abs() {
-                        break;
-                    }
-                }
-                j += 1;
-                term *= -t / j as f64;
-                if j > 400 || (term == 0.0 && j > 1) {
+        b_by_series(t, p, kmax, out);
+    }
+}
+
+/// Above this |t| the upward recursion is used (it is stable for |t| > k).
+fn series_limit(kmax: usize) -> f64 {
+    (kmax as f64 + 1.0).max(2.0)
+}
+
+/// Upward recursion B_k = ((−1)^k e^t − e^(−t) + k B_(k−1)) / t, stable for |t| > k.
+fn b_by_recursion(t: f64, p: f64, kmax: usize, out: &mut [f64; MAX_POWER + 1]) {
+    let ep = (t - p).exp();
+    let em = (-t - p).exp();
+    out[0] = (ep - em) / t;
+    for k in 1..=kmax {
+        let sign = if k % 2 == 0 { 1.0 } else { -1.0 };
+        out[k] = (sign * ep - em + k as f64 * out[k - 1]) / t;
+    }
+}
+
+/// Series B_k(t) = Σ_j (−t)^j / j! · 2/(k+j+1) over k + j even; its terms all have one
+/// sign, so it has no cancellation for any t (used for |t| ≤ series_limit).
+fn b_by_series(t: f64, p: f64, kmax: usize, out: &mut [f64; MAX_POWER + 1]) {
+    let scale = (-p).exp();
+    let minimum_terms = 2 * series_limit(kmax) as usize;
+    for (k, slot) in out.iter_mut().enumerate().take(kmax + 1) {
+        let mut sum = 0.0;
+        let mut term = 1.0; // (−t)^j / j!
+        let mut j = 0usize;
+        loop {
+            if (k + j).is_multiple_of(2) {
+                let contribution = term * 2.0 / (k + j + 1) as f64;
+                sum += contribution;
+                if j > minimum_terms && contribution.abs() <= 1e-17 * sum.abs() {
                     break;
                 }
             }
-            *slot = sum * scale;
+            j += 1;
+            term *= -t / j as f64;
+            if j > 400 || (term == 0.0 && j > 1) {
+                break;
+            }
         }
+        *slot = sum * scale;
     }
 }
 
@@ -546,20 +560,20 @@ mod tests {
     }
 
     #[test]
-    fn series_and_recursion_agree_at_the_switch() {
-        // Both branches evaluate the same integral; at |t| just above and below the
-        // switch point they must agree closely (continuity).
-        let (mut below, mut above) = ([0.0; MAX_POWER + 1], [0.0; MAX_POWER + 1]);
-        let switch = (MAX_POWER as f64 + 1.0).max(2.0);
-        scaled_b(switch - 1e-9, 20.0, MAX_POWER, &mut below);
-        scaled_b(switch + 1e-9, 20.0, MAX_POWER, &mut above);
-        for k in 0..=MAX_POWER {
-            assert!(
-                ((below[k] - above[k]) / below[k].abs().max(1e-300)).abs() < 1e-10,
-                "k = {k}: {} vs {}",
-                below[k],
-                above[k]
-            );
+    fn series_and_recursion_agree_where_both_apply() {
+        // The series is valid for every t; the recursion for |t| > k. Where both apply they
+        // must agree, and B_0(t) = 2 sinh(t)/t (elementary integral).
+        for t in [11.5f64, -11.5, 14.0, -20.0] {
+            let p = t.abs() + 1.0;
+            let (mut series, mut recursion) = ([0.0; MAX_POWER + 1], [0.0; MAX_POWER + 1]);
+            b_by_series(t, p, MAX_POWER, &mut series);
+            b_by_recursion(t, p, MAX_POWER, &mut recursion);
+            for k in 0..=MAX_POWER {
+                let relative = ((series[k] - recursion[k]) / series[k]).abs();
+                assert!(relative < 1e-12, "t = {t}, k = {k}: {relative:e}");
+            }
+            let closed = 2.0 * t.sinh() / t * (-p).exp();
+            assert!(((series[0] - closed) / closed).abs() < 1e-13);
         }
     }
 }

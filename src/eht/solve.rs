@@ -211,3 +211,42 @@ pub fn symmetric_eigenvalues(m: &DMatrix<f64>) -> Option<DVector<f64>> {
     values.sort_by(f64::total_cmp);
     Some(DVector::from_vec(values))
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn aufbau_fills_pairs_and_shares_partly_filled_degenerate_sets() {
+        // Levels: one, then a threefold set, then one (aufbau principle, textbook).
+        let energies = [-20.0, -10.0, -10.0 + 1e-6, -10.0, -5.0];
+        let (occ, open) = aufbau(&energies, 4);
+        assert_eq!(occ[0], 2.0);
+        for value in &occ[1..4] {
+            assert!((value - 2.0 / 3.0).abs() < 1e-15);
+        }
+        assert_eq!(occ[4], 0.0);
+        assert!(open);
+        let (occ, open) = aufbau(&energies, 8);
+        assert_eq!(occ, vec![2.0, 2.0, 2.0, 2.0, 0.0]);
+        assert!(!open);
+        let (occ, open) = aufbau(&energies, 9);
+        assert_eq!(occ, vec![2.0, 2.0, 2.0, 2.0, 1.0]);
+        assert!(open);
+    }
+
+    #[test]
+    fn two_level_problem_matches_the_closed_form() {
+        // Homonuclear two-level problem: E± = (α ± β)/(1 ± s) (Hückel with overlap,
+        // textbook closed form).
+        let (alpha, beta, s) = (-13.6, -8.0, 0.45);
+        let h = DMatrix::from_row_slice(2, 2, &[alpha, beta, beta, alpha]);
+        let overlap = DMatrix::from_row_slice(2, 2, &[1.0, s, s, 1.0]);
+        let solution = solve(&h, &overlap, 2).unwrap();
+        assert!((solution.energies[0] - (alpha + beta) / (1.0 + s)).abs() < 1e-12);
+        assert!((solution.energies[1] - (alpha - beta) / (1.0 - s)).abs() < 1e-12);
+        let c = (2.0 * (1.0 + s)).sqrt().recip();
+        assert!((solution.coefficients[(0, 0)] - c).abs() < 1e-12);
+        assert!((solution.coefficients[(1, 0)] - c).abs() < 1e-12);
+    }
+}
