@@ -6,7 +6,7 @@
 //! rotation invariance of the overlap matrix (a symmetry of the physics).
 
 use diptych::chem::{Atom, Element, Molecule};
-use diptych::eht::overlap::{bond_frame_overlaps, shell_pair_overlap};
+use diptych::eht::overlap::{SlaterShell, bond_frame_overlaps, shell_pair_overlap};
 use diptych::eht::{
     ElementParameters, ParameterSet, ShellParameters, build_basis, overlap_matrix,
     solve::symmetric_eigenvalues,
@@ -142,7 +142,13 @@ fn quadrature_block(a: Shell, b: Shell) -> DMatrix<f64> {
 }
 
 fn engine_block(a: Shell, b: Shell) -> DMatrix<f64> {
-    shell_pair_overlap((a.n, a.l, a.zeta, a.centre), (b.n, b.l, b.zeta, b.centre))
+    let convert = |s: Shell| SlaterShell {
+        n: s.n,
+        l: s.l,
+        zeta: s.zeta,
+        centre: s.centre,
+    };
+    shell_pair_overlap(&convert(a), &convert(b))
 }
 
 // ---------------------------------------------------------------- tests

@@ -126,7 +126,7 @@ pub struct EhtResult {
 impl EhtResult {
     /// Koopmans ionization energies of the occupied orbitals, HOMO first.
     pub fn koopmans_ionization_energies(&self) -> Vec<Ionization> {
-        self.solution_view().koopmans_ionization_energies()
+        solve::koopmans(&self.energies, &self.occupations)
     }
 
     /// Index of the highest occupied orbital.
@@ -143,21 +143,14 @@ impl EhtResult {
     pub fn charges(&self) -> &[f64] {
         &self.populations.charges
     }
-
-    fn solution_view(&self) -> Solution {
-        Solution {
-            energies: self.energies.clone(),
-            coefficients: DMatrix::zeros(0, 0),
-            occupations: self.occupations.clone(),
-            open_shell: self.open_shell,
-            electrons: self.electrons,
-            smallest_overlap_eigenvalue: self.smallest_overlap_eigenvalue,
-        }
-    }
 }
 
 /// Runs the extended Hückel calculation with the built-in parameters (plus the overrides in
 /// `settings`).
+///
+/// It checks what it needs itself (atoms present, finite coordinates, parameters, electron
+/// count, a non-singular S) but does not apply `Molecule::validate`'s policy limits (e.g.
+/// the 0.5 Å minimum separation); the analysis pipeline does that.
 pub fn run(molecule: &Molecule, settings: &EhtSettings) -> Result<EhtResult, EhtError> {
     run_with_parameters(molecule, settings, ParameterSet::builtin()?)
 }

@@ -440,23 +440,31 @@ fn bond_frame(axis: &Vector3<f64>) -> Matrix3<f64> {
     Matrix3::from_columns(&[u, v, *axis])
 }
 
-/// The overlap block between two shells placed in space (centres in bohr): rows the
-/// functions of `a`, columns those of `b`, in the order of `crate::chem::ao`.
-pub fn shell_pair_overlap(
-    (na, la, zeta_a, centre_a): (u8, u8, f64, Vector3<f64>),
-    (nb, lb, zeta_b, centre_b): (u8, u8, f64, Vector3<f64>),
-) -> DMatrix<f64> {
-    let diff = centre_b - centre_a;
+/// A Slater shell placed in space: all 2l + 1 real functions of (n, l) with exponent ζ.
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub struct SlaterShell {
+    pub n: u8,
+    pub l: u8,
+    /// Exponent in 1/bohr.
+    pub zeta: f64,
+    /// Centre in bohr.
+    pub centre: Vector3<f64>,
+}
+
+/// The overlap block between two shells: rows the functions of `a`, columns those of `b`,
+/// each in the order of `crate::chem::ao`. Requires 1 ≤ n ≤ 5 and l ≤ min(n − 1, 2).
+pub fn shell_pair_overlap(a: &SlaterShell, b: &SlaterShell) -> DMatrix<f64> {
+    let diff = b.centre - a.centre;
     let r = diff.norm();
     let (frame, r) = if r < ONE_CENTRE_DISTANCE {
         (Matrix3::identity(), 0.0)
     } else {
         (bond_frame(&(diff / r)), r)
     };
-    let rotations = FrameRotations::new(&frame, la == 2 || lb == 2);
-    let values = bond_frame_overlaps(na, la, zeta_a, nb, lb, zeta_b, r);
-    let block = rotate_block(la, lb, &values, &rotations);
-    let (sa, sb) = (2 * la as usize + 1, 2 * lb as usize + 1);
+    let rotations = FrameRotations::new(&frame, a.l == 2 || b.l == 2);
+    let values = bond_frame_overlaps(a.n, a.l, a.zeta, b.n, b.l, b.zeta, r);
+    let block = rotate_block(a.l, b.l, &values, &rotations);
+    let (sa, sb) = (2 * a.l as usize + 1, 2 * b.l as usize + 1);
     DMatrix::from_fn(sa, sb, |i, j| block[i][j])
 }
 
@@ -487,15 +495,6 @@ fn rotate_block(la: u8, lb: u8, values: &[f64; 3], rotations: &FrameRotations) -
         }
     }
     block
-}
-
-/// Overlap between two single basis functions described by (n, l, index within the shell,
-/// ζ, centre in bohr). Convenience for tests and one-off checks.
-pub fn sto_overlap(
-    (na, la, ia, zeta_a, centre_a): (u8, u8, usize, f64, Vector3<f64>),
-    (nb, lb, ib, zeta_b, centre_b): (u8, u8, usize, f64, Vector3<f64>),
-) -> f64 {
-    shell_pair_overlap((na, la, zeta_a, centre_a), (nb, lb, zeta_b, centre_b))[(ia, ib)]
 }
 
 /// The overlap matrix S of a basis (symmetric, unit diagonal). Functions on the same atom

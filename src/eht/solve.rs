@@ -71,18 +71,23 @@ impl Solution {
             .sum()
     }
 
-    /// Koopmans' theorem (T. Koopmans, Physica 1, 104 (1934)): ionization energies of the
-    /// occupied orbitals, the HOMO first.
+    /// Koopmans' ionization energies of the occupied orbitals, the HOMO first.
     pub fn koopmans_ionization_energies(&self) -> Vec<Ionization> {
-        (0..self.energies.len())
-            .rev()
-            .filter(|&k| self.occupations[k] > 0.0)
-            .map(|k| Ionization {
-                orbital: k,
-                energy_ev: -self.energies[k],
-            })
-            .collect()
+        koopmans(&self.energies, &self.occupations)
     }
+}
+
+/// Koopmans' theorem (T. Koopmans, Physica 1, 104 (1934)): the ionization energy from an
+/// occupied orbital is minus its energy. Returns the occupied orbitals, the HOMO first.
+pub fn koopmans(energies: &[f64], occupations: &[f64]) -> Vec<Ionization> {
+    (0..energies.len())
+        .rev()
+        .filter(|&k| occupations[k] > 0.0)
+        .map(|k| Ionization {
+            orbital: k,
+            energy_ev: -energies[k],
+        })
+        .collect()
 }
 
 /// Solves HC = SCE for `electrons` electrons. Errors: mismatched or non-finite matrices,
