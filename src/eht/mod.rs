@@ -7,7 +7,7 @@
 //! 2. [`overlap_matrix`]: analytic STO overlaps (Mulliken, Rieke, Orloff and Orloff 1949);
 //! 3. [`hamiltonian_matrix`]: H_ii = VSIP, H_ij = K S_ij (H_ii + H_jj)/2, weighted by
 //!    default (Ammeter, Bürgi, Thibeault and Hoffmann 1978);
-//! 4. [`solve`]: HC = SCE by Löwdin orthogonalization, aufbau occupations;
+//! 4. [`solve()`]: HC = SCE by Löwdin orthogonalization, aufbau occupations;
 //! 5. [`mulliken`]: Mulliken populations, charges and overlap populations.
 //!
 //! [`run`] does all five for a molecule. Energies are in eV, distances in the molecule in
@@ -32,7 +32,10 @@ pub use hamiltonian::{DEFAULT_K, effective_k, hamiltonian_matrix};
 pub use overlap::{BOHR_IN_ANGSTROM, overlap_matrix};
 pub use params::{ElementParameters, ParameterSet, ShellParameters};
 pub use population::{Populations, mulliken};
-pub use solve::{Ionization, SINGULAR_OVERLAP_THRESHOLD, Solution, density_matrix, solve};
+pub use solve::{
+    DEGENERACY_TOLERANCE_EV, Ionization, SINGULAR_OVERLAP_THRESHOLD, Solution, aufbau,
+    density_matrix, koopmans, solve,
+};
 
 /// Everything that can go wrong in an extended Hückel calculation.
 #[derive(Debug, Clone, PartialEq, Error)]

@@ -18,8 +18,9 @@ use super::EhtError;
 pub const SINGULAR_OVERLAP_THRESHOLD: f64 = 1e-5;
 
 /// Orbital energies closer than this (eV) are one degenerate set when filling levels.
-/// Common practice, no source: well above rounding noise, well below real splittings.
-pub const DEGENERACY_TOLERANCE_EV: f64 = 1e-4;
+/// Common practice, no source: above both rounding noise and the splitting that
+/// coordinates rounded to 1e-3 Å cause in a degenerate set, well below real splittings.
+pub const DEGENERACY_TOLERANCE_EV: f64 = 1e-3;
 
 const EIGEN_EPS: f64 = 1e-14;
 const EIGEN_MAX_ITERATIONS: usize = 10_000;
@@ -224,7 +225,7 @@ mod tests {
     #[test]
     fn aufbau_fills_pairs_and_shares_partly_filled_degenerate_sets() {
         // Levels: one, then a threefold set, then one (aufbau principle, textbook).
-        let energies = [-20.0, -10.0, -10.0 + 1e-6, -10.0, -5.0];
+        let energies = [-20.0, -10.0, -10.0 + 1e-6, -10.0 + 2e-6, -5.0];
         let (occ, open) = aufbau(&energies, 4);
         assert_eq!(occ[0], 2.0);
         for value in &occ[1..4] {
