@@ -22,7 +22,10 @@ pub const SINGULAR_OVERLAP_THRESHOLD: f64 = 1e-5;
 /// coordinates rounded to 1e-3 Å cause in a degenerate set, well below real splittings.
 pub const DEGENERACY_TOLERANCE_EV: f64 = 1e-3;
 
-const EIGEN_EPS: f64 = 1e-14;
+/// Relative deflation tolerance of the symmetric QR iteration: off-diagonal elements below
+/// 1e-12 × the neighbouring diagonal are dropped (eigenvalue errors ~1e-12 relative, far
+/// below anything reported; it halves the time against machine epsilon).
+const EIGEN_EPS: f64 = 1e-12;
 const EIGEN_MAX_ITERATIONS: usize = 10_000;
 
 /// Orbitals and occupations of HC = SCE.
