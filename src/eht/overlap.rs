@@ -300,6 +300,8 @@ fn b_by_series(t: f64, p: f64, kmax: usize, out: &mut [f64; MAX_POWER + 1]) {
 
 /// Bond-frame overlaps S_m (m = 0 σ, 1 π, 2 δ) between shell (na, la, ζa) at the origin and
 /// (nb, lb, ζb) at distance `r` (bohr) along +z; both functions use the same axes.
+/// Entries with m > min(la, lb) are 0. Requires 1 ≤ n ≤ 5 and l ≤ min(n − 1, 2) for both
+/// shells (unsupported shells give zeros).
 pub fn bond_frame_overlaps(
     na: u8,
     la: u8,
@@ -310,6 +312,12 @@ pub fn bond_frame_overlaps(
     r: f64,
 ) -> [f64; 3] {
     let mut out = [0.0; 3];
+    let supported = |n: u8, l: u8| (1..=5).contains(&n) && l < n && l <= 2;
+    if !supported(na, la) || !supported(nb, lb) {
+        // Parameters are validated before they get here (`ElementParameters::validate`).
+        debug_assert!(false, "unsupported shells ({na}, {la}) / ({nb}, {lb})");
+        return out;
+    }
     let mmax = la.min(lb);
     if r < ONE_CENTRE_DISTANCE {
         if la == lb {
@@ -452,8 +460,13 @@ pub struct SlaterShell {
 }
 
 /// The overlap block between two shells: rows the functions of `a`, columns those of `b`,
-/// each in the order of `crate::chem::ao`. Requires 1 ≤ n ≤ 5 and l ≤ min(n − 1, 2).
+/// each in the order of `crate::chem::ao`. Requires 1 ≤ n ≤ 5 and l ≤ min(n − 1, 2)
+/// (unsupported shells give zeros).
 pub fn shell_pair_overlap(a: &SlaterShell, b: &SlaterShell) -> DMatrix<f64> {
+    if a.l > 2 || b.l > 2 {
+        debug_assert!(false, "l > 2 is not supported");
+        return DMatrix::zeros(2 * a.l as usize + 1, 2 * b.l as usize + 1);
+    }
     let diff = b.centre - a.centre;
     let r = diff.norm();
     let (frame, r) = if r < ONE_CENTRE_DISTANCE {
