@@ -323,3 +323,30 @@ fn random_molecules_never_panic() {
     }
     assert!(analysed > 100, "{analysed}");
 }
+
+#[test]
+fn bonds_naming_missing_atoms_are_dropped_and_reported() {
+    let mut m = molecule(AMMONIA);
+    let eht = run(&m, &EhtSettings::default()).unwrap();
+    m.bonds.push(diptych::chem::molecule::Bond::new(0, 17, 1));
+    m.bonds.push(diptych::chem::molecule::Bond::new(2, 2, 1));
+    let analysis = analyze(&m, &eht, &HybridSettings::default());
+    assert!(
+        analysis
+            .errors
+            .contains(&HybridError::InvalidBond { a: 0, b: 17 })
+    );
+    assert!(
+        analysis
+            .errors
+            .contains(&HybridError::InvalidBond { a: 2, b: 2 })
+    );
+    assert_eq!(analysis.centre(0).unwrap().sigma_partners, vec![1, 2, 3]);
+    let mut m = molecule(AMMONIA);
+    m.atoms[2].position.x = f64::NAN;
+    let analysis = analyze(&m, &eht, &HybridSettings::default());
+    assert_eq!(
+        analysis.errors,
+        vec![HybridError::NonFiniteCoordinate { atom: 2 }]
+    );
+}

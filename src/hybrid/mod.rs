@@ -91,6 +91,10 @@ pub enum HybridError {
         element: String,
         needed: usize,
     },
+    #[error("atom {atom} has a non-finite coordinate")]
+    NonFiniteCoordinate { atom: usize },
+    #[error("bond {a}–{b} names a missing atom or the same atom twice; it was ignored")]
+    InvalidBond { a: usize, b: usize },
     #[error("bond {a}–{b} has order {order}; at most triple bonds are described")]
     BondOrderTooHigh { a: usize, b: usize, order: u8 },
     #[error(
@@ -123,7 +127,9 @@ pub enum HybridError {
 pub enum HybridKind {
     /// σ bond hybrid toward `partner`.
     Bond,
-    /// Pure p orbital of a π bond to `partner`.
+    /// The orbital of a π bond to `partner`: pure p at a planar centre, with a little s
+    /// at a pyramidalized one (the geometric model puts the s left over by the σ bonds
+    /// there, as in the π-orbital axis analysis of fullerenes).
     Pi,
     LonePair,
     /// Empty orbital completing the set.
@@ -327,6 +333,39 @@ pub fn analyze(molecule: &Molecule, eht: &EhtResult, settings: &HybridSettings) 
         });
         return analysis;
     }
+    if let Some(atom) = molecule
+        .atoms
+        .iter()
+        .position(|a| a.position.iter().any(|x| !x.is_finite()))
+    {
+        analysis
+            .errors
+            .push(HybridError::NonFiniteCoordinate { atom });
+        return analysis;
+    }
+    // Bonds that name missing atoms or an atom twice are dropped (reported), so that
+    // nothing below indexes out of range.
+    let cleaned;
+    let molecule = if molecule
+        .bonds
+        .iter()
+        .any(|b| b.a == b.b || b.a.max(b.b) >= molecule.atoms.len())
+    {
+        let mut copy = molecule.clone();
+        copy.bonds.retain(|b| {
+            let bad = b.a == b.b || b.a.max(b.b) >= molecule.atoms.len();
+            if bad {
+                analysis
+                    .errors
+                    .push(HybridError::InvalidBond { a: b.a, b: b.b });
+            }
+            !bad
+        });
+        cleaned = copy;
+        &cleaned
+    } else {
+        molecule
+    };
     let model = if settings.model == HybridModel::Localized {
         analysis.errors.push(HybridError::LocalizedModelUnavailable);
         HybridModel::Geometric
@@ -501,14 +540,6 @@ pub fn analyze(molecule: &Molecule, eht: &EhtResult, settings: &HybridSettings) 
             continue;
         }
         let atom = state.spec.atom;
-        let Some(indices) = sp_index[atom] else {
-            continue;
-        };
-        let eps_s = eht.hamiltonian[(indices[0], indices[0])];
-        let eps_p = (1..4)
-            .map(|k| eht.hamiltonian[(indices[k], indices[k])])
-            .sum::<f64>()
-            / 3.0;
         let Some(set) = complete_set(&state, settings.lone_pair_convention) else {
             analysis
                 .errors
@@ -520,90 +551,122 @@ pub fn analyze(molecule: &Molecule, eht: &EhtResult, settings: &HybridSettings) 
             state.pi.len(),
             state.spec.lone_pair_orbitals(),
         );
-        let mut hybrids = Vec::with_capacity(4);
+        let mut orbitals = Vec::with_capacity(4);
         for (k, v) in set.iter().enumerate() {
-            let (kind, partner, axis) = if k < bond_count {
-                (
-                    HybridKind::Bond,
-                    Some(state.spec.sigma_partners[k]),
-                    Some(state.units[k]),
-                )
+            let (kind, partner) = if k < bond_count {
+                (HybridKind::Bond, Some(state.spec.sigma_partners[k]))
             } else if k < bond_count + pi_count {
-                let (partner, _) = state.spec.pi[k - bond_count];
-                (HybridKind::Pi, Some(partner), None)
+                (HybridKind::Pi, Some(state.spec.pi[k - bond_count].0))
             } else if k < bond_count + pi_count + lone_count {
-                (HybridKind::LonePair, None, None)
+                (HybridKind::LonePair, None)
             } else {
-                (HybridKind::Vacant, None, None)
+                (HybridKind::Vacant, None)
             };
-            let mut v = *v;
             // Sign conventions: bonds point at the partner, π along its chosen direction,
             // lone pairs and vacant orbitals with a non-negative s coefficient.
+            let p = Vector3::new(v[1], v[2], v[3]);
             let flip = match kind {
-                HybridKind::Bond => {
-                    let u = axis.unwrap_or_else(Vector3::z);
-                    v[0] + Vector3::new(v[1], v[2], v[3]).dot(&u) < 0.0
-                }
-                HybridKind::Pi => {
-                    let (_, d) = state.spec.pi[k - bond_count];
-                    Vector3::new(v[1], v[2], v[3]).dot(&d) < 0.0
-                }
+                HybridKind::Bond => v[0] + p.dot(&state.units[k]) < 0.0,
+                HybridKind::Pi => p.dot(&state.spec.pi[k - bond_count].1) < 0.0,
                 _ => v[0] < -1e-12,
             };
-            if flip {
-                v = -v;
-            }
-            hybrids.push(describe_hybrid(
-                kind,
-                partner,
-                &v,
-                axis.as_ref(),
-                eps_s,
-                eps_p,
-                indices,
-                n,
-            ));
+            orbitals.push((kind, partner, if flip { -v } else { *v }));
         }
-        let mut angles = Vec::new();
-        for i in 0..hybrids.len() {
-            for j in i + 1..hybrids.len() {
-                let directed = |h: &Hybrid| {
-                    matches!(h.kind, HybridKind::Bond | HybridKind::LonePair) && h.p_percent > 1e-6
-                };
-                if directed(&hybrids[i]) && directed(&hybrids[j]) {
-                    let a = Vector3::from(hybrids[i].direction);
-                    let b = Vector3::from(hybrids[j].direction);
-                    angles.push(InterorbitalAngle {
-                        first: i,
-                        second: j,
-                        degrees: angle_between(&a, &b).to_degrees(),
-                    });
-                }
-            }
-        }
-        analysis.centres.push(CentreHybrids {
-            atom,
-            element: molecule.atoms[atom].element.symbol().to_string(),
-            model: state.model,
-            sigma_partners: state.spec.sigma_partners.clone(),
-            pi_bonds: state.spec.pi.len(),
-            lone_pairs: state.spec.lone_pairs,
-            single_electron: state.spec.single_electron,
-            formal_charge: state.spec.formal_charge,
-            steric_number: state.spec.steric_number(),
-            eps_s,
-            eps_p,
-            hybrids,
-            interorbital_angles: angles,
-            residual: state.residual,
-            notes: state.notes,
-        });
+        let Some(mut centre) = describe_centre(molecule, eht, atom, &orbitals, state.model) else {
+            continue;
+        };
+        centre.lone_pairs = state.spec.lone_pairs;
+        centre.single_electron = state.spec.single_electron;
+        centre.formal_charge = state.spec.formal_charge;
+        centre.steric_number = state.spec.steric_number();
+        centre.residual = state.residual;
+        centre.notes = state.notes;
+        analysis.centres.push(centre);
     }
     let (localized, errors, notes) = localized_ladder(molecule, eht, &analysis.centres);
     analysis.localized = localized;
     analysis.errors.extend(errors);
     analysis.notes.extend(notes);
     analysis
+}
+
+/// Describes a centre from its orbitals given as (kind, partner, local (s, px, py, pz)
+/// coefficients), in the order and with the signs given: each [`Hybrid`] (λ, shares,
+/// direction, bending toward the partner, energy, AO vector) and the interorbital angles
+/// between bond and lone-pair hybrids. The Lewis fields are counted from the kinds
+/// (formal charge 0, no odd electron). `None` when `atom` has no valence s,p functions
+/// in the basis. Public so that hybrids from another source (localized MOs) are reported
+/// exactly like the built-in models.
+pub fn describe_centre(
+    molecule: &Molecule,
+    eht: &EhtResult,
+    atom: usize,
+    orbitals: &[(HybridKind, Option<usize>, Vector4<f64>)],
+    model: HybridModel,
+) -> Option<CentreHybrids> {
+    let n = eht.basis.len();
+    if eht.hamiltonian.nrows() != n || eht.hamiltonian.ncols() != n {
+        return None;
+    }
+    let (_, sp_index) = atom_orbital_indices(molecule, eht);
+    let indices = sp_index.get(atom).copied().flatten()?;
+    let eps_s = eht.hamiltonian[(indices[0], indices[0])];
+    let eps_p = (1..4)
+        .map(|k| eht.hamiltonian[(indices[k], indices[k])])
+        .sum::<f64>()
+        / 3.0;
+    let centre_position = molecule.atoms[atom].position;
+    let hybrids: Vec<Hybrid> = orbitals
+        .iter()
+        .map(|(kind, partner, v)| {
+            let axis = partner
+                .filter(|&p| p < molecule.atoms.len())
+                .map(|p| molecule.atoms[p].position - centre_position)
+                .filter(|d| d.norm() > 1e-8)
+                .map(|d| d.normalize());
+            describe_hybrid(*kind, *partner, v, axis.as_ref(), eps_s, eps_p, indices, n)
+        })
+        .collect();
+    let mut angles = Vec::new();
+    let directed = |h: &Hybrid| {
+        matches!(h.kind, HybridKind::Bond | HybridKind::LonePair) && h.p_percent > 1e-6
+    };
+    for i in 0..hybrids.len() {
+        for j in i + 1..hybrids.len() {
+            if directed(&hybrids[i]) && directed(&hybrids[j]) {
+                let a = Vector3::from(hybrids[i].direction);
+                let b = Vector3::from(hybrids[j].direction);
+                angles.push(InterorbitalAngle {
+                    first: i,
+                    second: j,
+                    degrees: angle_between(&a, &b).to_degrees(),
+                });
+            }
+        }
+    }
+    let count = |kind: HybridKind| hybrids.iter().filter(|h| h.kind == kind).count();
+    let sigma_partners: Vec<usize> = hybrids
+        .iter()
+        .filter(|h| h.kind == HybridKind::Bond)
+        .filter_map(|h| h.partner)
+        .collect();
+    Some(CentreHybrids {
+        atom,
+        element: molecule.atoms[atom].element.symbol().to_string(),
+        model,
+        steric_number: sigma_partners.len() + count(HybridKind::LonePair),
+        sigma_partners,
+        pi_bonds: count(HybridKind::Pi),
+        lone_pairs: count(HybridKind::LonePair),
+        single_electron: false,
+        formal_charge: 0,
+        eps_s,
+        eps_p,
+        hybrids,
+        interorbital_angles: angles,
+        residual: None,
+        notes: Vec::new(),
+    })
 }
 
 /// Bonds, π, lone pairs and vacant orbitals as one orthonormal set of four.
