@@ -3,7 +3,7 @@
 
 use serde::Serialize;
 
-use crate::analysis::{Analysis, StageError};
+use crate::analysis::{Analysis, OrbitalSummary, StageError};
 
 #[derive(Serialize)]
 struct AtomEntry {
@@ -36,6 +36,12 @@ struct MoleculeEntry {
 struct JsonReport<'a> {
     molecule: MoleculeEntry,
     electrons: usize,
+    orbitals: &'a [OrbitalSummary],
+    /// Mulliken charge per atom (null when the MO stage failed).
+    charges: Option<&'a [f64]>,
+    /// Σ occupancy × energy over the occupied orbitals (eV).
+    sum_occupied_energy_ev: Option<f64>,
+    open_shell: Option<bool>,
     errors: &'a [StageError],
 }
 
@@ -76,6 +82,10 @@ pub fn to_json(analysis: &Analysis) -> String {
     let report = JsonReport {
         molecule: molecule_entry(analysis),
         electrons: analysis.electrons,
+        orbitals: &analysis.orbitals,
+        charges: analysis.eht.as_ref().map(|eht| eht.charges()),
+        sum_occupied_energy_ev: analysis.eht.as_ref().map(|eht| eht.sum_occupied_energy),
+        open_shell: analysis.eht.as_ref().map(|eht| eht.open_shell),
         errors: &analysis.errors,
     };
     serde_json::to_string_pretty(&report)
@@ -116,11 +126,51 @@ pub fn to_text(analysis: &Analysis) -> String {
             length
         ));
     }
+    if let Some(eht) = &analysis.eht {
+        text.push_str(&orbital_table(analysis, eht));
+    }
     for error in &analysis.errors {
         text.push_str(&format!(
             "\n{:?} stage failed: {}\n",
             error.stage, error.message
         ));
+    }
+    text
+}
+
+/// The MO table: energy, occupancy, label and the largest AO contributions (Mulliken
+/// gross shares of the orbital, |c_μ Σ_ν S_μν c_ν|).
+fn orbital_table(analysis: &Analysis, eht: &crate::eht::EhtResult) -> String {
+    let mut text = String::from("\nMolecular orbitals (extended Hückel, eV)\n");
+    text.push_str("    #   energy   occ  label   largest contributions\n");
+    let sc = &eht.overlap * &eht.coefficients;
+    for orbital in analysis.orbitals.iter().rev() {
+        let j = orbital.index;
+        let mut shares: Vec<(f64, usize)> = (0..eht.basis.len())
+            .map(|mu| (eht.coefficients[(mu, j)] * sc[(mu, j)], mu))
+            .collect();
+        shares.sort_by(|a, b| b.0.abs().total_cmp(&a.0.abs()));
+        let parts: Vec<String> = shares
+            .iter()
+            .take(3)
+            .filter(|(share, _)| share.abs() >= 0.05)
+            .map(|&(share, mu)| {
+                let ao = eht.basis.orbitals[mu];
+                let atom = analysis.molecule.atoms[ao.atom].element;
+                format!("{:.0}% {}{} {}", 100.0 * share, atom, ao.atom, ao.label())
+            })
+            .collect();
+        text.push_str(&format!(
+            "  {:>3} {:>8.3} {:>5.2}  {:<6}  {}\n",
+            j,
+            orbital.energy_ev,
+            orbital.occupancy,
+            orbital.label.as_deref().unwrap_or("–"),
+            parts.join(", ")
+        ));
+    }
+    if eht.open_shell {
+        text.push_str("  (open shell: a partly filled degenerate set shares its electrons)\n");
     }
     text
 }
