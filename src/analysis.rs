@@ -65,6 +65,38 @@ pub struct OrbitalSummary {
     pub irrep: Option<String>,
     /// Numbered label (e.g. "3a1"), when symmetry is known.
     pub label: Option<String>,
+    /// Mulliken gross shares by atomic orbital, largest first, those ≥ 1 %.
+    pub composition: Vec<AoShare>,
+}
+
+/// One atomic orbital's Mulliken gross share of an MO: c_μ Σ_ν S_μν c_ν (Mulliken,
+/// J. Chem. Phys. 23, 1833 (1955)); the shares of one MO add to 1.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct AoShare {
+    pub atom: usize,
+    /// e.g. "2pz".
+    pub orbital: String,
+    pub share: f64,
+}
+
+/// One localized orbital (bond, antibond, lone pair) as the reports and panels show it.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct LocalizedSummary {
+    /// "bond", "antibond", "lone_pair", "pi", "pi_antibond", "multicentre".
+    pub kind: String,
+    pub atoms: Vec<usize>,
+    pub energy_ev: f64,
+    pub occupancy: f64,
+    /// e.g. "σ(N–H)", "n(N)".
+    pub label: String,
+}
+
+/// Weight of canonical MO `canonical` in localized orbital `localized` (DESIGN §4.6).
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct LinkSummary {
+    pub localized: usize,
+    pub canonical: usize,
+    pub weight: f64,
 }
 
 /// Everything computed for one molecule and one set of settings.
@@ -79,6 +111,10 @@ pub struct Analysis {
     pub eht: Option<EhtResult>,
     /// The canonical MOs in ascending energy (empty if the MO stage failed).
     pub orbitals: Vec<OrbitalSummary>,
+    /// The localized ladder (empty until the hybrid stage has run).
+    pub localized: Vec<LocalizedSummary>,
+    /// Canonical ↔ localized weights above 1e-4.
+    pub links: Vec<LinkSummary>,
     pub errors: Vec<StageError>,
 }
 
@@ -106,22 +142,41 @@ impl Analysis {
             formula: molecule.formula(),
             eht,
             orbitals,
+            localized: Vec::new(),
+            links: Vec::new(),
             errors,
         })
     }
 }
 
 fn orbital_summaries(eht: &EhtResult) -> Vec<OrbitalSummary> {
+    let sc = &eht.overlap * &eht.coefficients;
     eht.energies
         .iter()
         .zip(&eht.occupations)
         .enumerate()
-        .map(|(index, (&energy_ev, &occupancy))| OrbitalSummary {
-            index,
-            energy_ev,
-            occupancy,
-            irrep: None,
-            label: None,
+        .map(|(index, (&energy_ev, &occupancy))| {
+            let mut composition: Vec<AoShare> = eht
+                .basis
+                .orbitals
+                .iter()
+                .enumerate()
+                .map(|(mu, ao)| AoShare {
+                    atom: ao.atom,
+                    orbital: ao.label(),
+                    share: eht.coefficients[(mu, index)] * sc[(mu, index)],
+                })
+                .filter(|share| share.share.abs() >= 0.01)
+                .collect();
+            composition.sort_by(|a, b| b.share.abs().total_cmp(&a.share.abs()));
+            OrbitalSummary {
+                index,
+                energy_ev,
+                occupancy,
+                irrep: None,
+                label: None,
+                composition,
+            }
         })
         .collect()
 }

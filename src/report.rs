@@ -138,31 +138,30 @@ pub fn to_text(analysis: &Analysis) -> String {
     text
 }
 
-/// The MO table: energy, occupancy, label and the largest AO contributions (Mulliken
-/// gross shares of the orbital, |c_μ Σ_ν S_μν c_ν|).
+/// The MO table: energy, occupancy, label and the largest AO contributions.
 fn orbital_table(analysis: &Analysis, eht: &crate::eht::EhtResult) -> String {
     let mut text = String::from("\nMolecular orbitals (extended Hückel, eV)\n");
-    text.push_str("    #   energy   occ  label   largest contributions\n");
-    let sc = &eht.overlap * &eht.coefficients;
+    text.push_str("    #   energy   occ  label   largest contributions (Mulliken gross shares)\n");
     for orbital in analysis.orbitals.iter().rev() {
-        let j = orbital.index;
-        let mut shares: Vec<(f64, usize)> = (0..eht.basis.len())
-            .map(|mu| (eht.coefficients[(mu, j)] * sc[(mu, j)], mu))
-            .collect();
-        shares.sort_by(|a, b| b.0.abs().total_cmp(&a.0.abs()));
-        let parts: Vec<String> = shares
+        let parts: Vec<String> = orbital
+            .composition
             .iter()
             .take(3)
-            .filter(|(share, _)| share.abs() >= 0.05)
-            .map(|&(share, mu)| {
-                let ao = eht.basis.orbitals[mu];
-                let atom = analysis.molecule.atoms[ao.atom].element;
-                format!("{:.0}% {}{} {}", 100.0 * share, atom, ao.atom, ao.label())
+            .filter(|part| part.share.abs() >= 0.05)
+            .map(|part| {
+                let element = analysis.molecule.atoms[part.atom].element;
+                format!(
+                    "{:.0}% {}{} {}",
+                    100.0 * part.share,
+                    element,
+                    part.atom,
+                    part.orbital
+                )
             })
             .collect();
         text.push_str(&format!(
             "  {:>3} {:>8.3} {:>5.2}  {:<6}  {}\n",
-            j,
+            orbital.index,
             orbital.energy_ev,
             orbital.occupancy,
             orbital.label.as_deref().unwrap_or("–"),

@@ -1,6 +1,8 @@
-//! The eframe desktop shell (DESIGN §2): menu bar, Structure panel with the molecule's
-//! details, status bar. It renders results of `Analysis::run` and computes no chemistry.
+//! The eframe desktop shell (DESIGN §2): menu bar, Structure panel, Diagram panel,
+//! Inspector, status bar. It renders results of `Analysis::run` and computes no chemistry.
 
+mod diagram_view;
+mod inspector;
 mod menus;
 mod molecule_panel;
 mod screenshot;
@@ -70,26 +72,18 @@ impl DiptychApp {
                 }
             });
         });
-        egui::Panel::right("molecule")
+        egui::Panel::left("structure")
+            .default_size(380.0)
+            .resizable(true)
+            .show(ui, |ui| self.structure_panel(ui));
+        egui::Panel::right("inspector")
             .default_size(300.0)
             .resizable(true)
             .show(ui, |ui| {
-                egui::ScrollArea::vertical().show(ui, |ui| molecule_panel::show(ui, &self.state));
+                ui.heading("Inspector");
+                egui::ScrollArea::vertical().show(ui, |ui| inspector::show(ui, &self.state));
             });
-        egui::CentralPanel::default_margins().show(ui, |ui| {
-            ui.heading("Structure");
-            let events = structure_view::show(
-                ui,
-                &self.state.project.molecule,
-                &mut self.state.camera,
-                self.state.selected_atom,
-            );
-            if let Some(atom) = events.clicked_atom {
-                self.state.selected_atom = Some(atom);
-            } else if events.clicked_background {
-                self.state.selected_atom = None;
-            }
-        });
+        egui::CentralPanel::default_margins().show(ui, |ui| self.diagram_panel(ui));
         self.error_dialog(ui);
 
         let title = self.state.title();
@@ -97,6 +91,73 @@ impl DiptychApp {
             ui.ctx()
                 .send_viewport_cmd(egui::ViewportCommand::Title(title.clone()));
             self.last_title = title;
+        }
+    }
+
+    fn structure_panel(&mut self, ui: &mut egui::Ui) {
+        ui.heading("Structure");
+        let highlight = self.state.atom_weights_of_focused_level();
+        let events = structure_view::show(
+            ui,
+            &self.state.project.molecule,
+            &mut self.state.camera,
+            self.state.selected_atom,
+            &highlight,
+        );
+        if let Some(atom) = events.clicked_atom {
+            self.state.selected_atom = Some(atom);
+        } else if events.clicked_background {
+            self.state.selected_atom = None;
+        }
+    }
+
+    fn diagram_panel(&mut self, ui: &mut egui::Ui) {
+        ui.horizontal_wrapped(|ui| {
+            ui.heading("Diagram");
+            ui.add_space(8.0);
+            let titles = &mut self.state.project.titles;
+            let left = ui.add(
+                egui::TextEdit::singleline(&mut titles.delocalized)
+                    .desired_width(170.0)
+                    .hint_text("left ladder title"),
+            );
+            let right = ui.add(
+                egui::TextEdit::singleline(&mut titles.localized)
+                    .desired_width(170.0)
+                    .hint_text("right ladder title"),
+            );
+            if left.changed() || right.changed() {
+                self.state.dirty = true;
+                self.state.rebuild_diagram();
+            }
+        });
+        ui.horizontal_wrapped(|ui| {
+            let energies = ui.checkbox(&mut self.state.project.view.show_energies, "Energies");
+            let threshold = ui.add(
+                egui::Slider::new(&mut self.state.project.view.link_threshold, 0.0..=0.5)
+                    .text("hide lines below this weight"),
+            );
+            if energies.changed() || threshold.changed() {
+                self.state.dirty = true;
+                self.state.rebuild_diagram();
+            }
+        });
+        let show_energies = self.state.project.view.show_energies;
+        let Some(diagram) = &self.state.diagram else {
+            ui.centered_and_justified(|ui| {
+                ui.label(match &self.state.analysis_error {
+                    Some(error) => format!("No diagram: {error}"),
+                    None => "Computing…".to_string(),
+                })
+            });
+            return;
+        };
+        let events = diagram_view::show(ui, diagram, self.state.selected_level, show_energies);
+        self.state.hovered_level = events.hovered;
+        if let Some(level) = events.clicked {
+            self.state.selected_level = Some(level);
+        } else if events.clicked_background {
+            self.state.selected_level = None;
         }
     }
 

@@ -1,13 +1,13 @@
-//! The side panel beside the 3D view: the molecule's summary from the last analysis and
-//! the selected atom's details (position, neighbours, bond lengths and angles).
+//! Parts of the Inspector about the molecule: its summary from the last analysis and the
+//! selected atom's details (position, neighbours, bond lengths and angles).
 
 use diptych::chem::Molecule;
 use eframe::egui;
 
 use super::state::AppState;
 
-pub fn show(ui: &mut egui::Ui, state: &AppState) {
-    let molecule = &state.project.molecule;
+/// Name, formula, charge, electron count.
+pub fn summary(ui: &mut egui::Ui, state: &AppState) {
     ui.heading("Molecule");
     match &state.analysis {
         Some(analysis) => {
@@ -37,11 +37,15 @@ pub fn show(ui: &mut egui::Ui, state: &AppState) {
             ui.label("Analysing…");
         }
     }
-    ui.separator();
+}
+
+/// The selected atom's position, bonds and angles, or a hint.
+pub fn selected_atom(ui: &mut egui::Ui, state: &AppState) {
+    let molecule = &state.project.molecule;
     match state.selected_atom.filter(|&index| index < molecule.len()) {
         Some(index) => atom_details(ui, molecule, index),
         None => {
-            ui.weak("Click an atom to see its details. Drag to rotate, scroll to zoom.");
+            ui.weak("Click an atom or a level to see its details. Drag to rotate, scroll to zoom.");
         }
     }
 }

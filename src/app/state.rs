@@ -7,9 +7,11 @@ use std::sync::Arc;
 use diptych::analysis::Analysis;
 use diptych::chem::Molecule;
 use diptych::chem::io::xyz::parse_xyz;
+use diptych::diagram::{Diagram, DiagramOptions, diagram_for};
 use diptych::project::{Opened, Project, open_path};
 use eframe::egui;
 
+use super::diagram_view::LevelRef;
 use super::structure_view::Camera;
 use super::worker::AnalysisWorker;
 
@@ -29,6 +31,12 @@ pub struct AppState {
     generation: u64,
     worker: AnalysisWorker,
     pub selected_atom: Option<usize>,
+    /// The level selected in the Diagram for the Inspector.
+    pub selected_level: Option<LevelRef>,
+    /// The level under the pointer in the Diagram (last frame).
+    pub hovered_level: Option<LevelRef>,
+    /// The diagram of `analysis` with the current titles and threshold.
+    pub diagram: Option<Diagram>,
     pub camera: Camera,
     /// One-line message for the status bar.
     pub status: String,
@@ -73,6 +81,9 @@ impl AppState {
             generation: 0,
             worker: AnalysisWorker::start(context),
             selected_atom: None,
+            selected_level: None,
+            hovered_level: None,
+            diagram: None,
             camera: Camera::default(),
             status,
             error_dialog: None,
@@ -108,6 +119,7 @@ impl AppState {
                 Ok(analysis) => {
                     self.analysis = Some(analysis);
                     self.analysis_error = None;
+                    self.rebuild_diagram();
                 }
                 Err(message) => {
                     // Keep the last good analysis on screen; say why it is not current.
@@ -116,6 +128,53 @@ impl AppState {
             }
             self.analysed_generation = outcome.generation;
         }
+    }
+
+    /// Per-atom weights of the hovered (else selected) level, for the Structure panel:
+    /// Mulliken atom shares of a canonical MO, equal shares over a localized orbital's
+    /// atoms. Read from the analysis, not computed here.
+    pub fn atom_weights_of_focused_level(&self) -> Vec<(usize, f64)> {
+        let (Some(level), Some(analysis)) =
+            (self.hovered_level.or(self.selected_level), &self.analysis)
+        else {
+            return Vec::new();
+        };
+        if level.ladder == 0 {
+            let mut weights: Vec<(usize, f64)> = Vec::new();
+            if let Some(orbital) = analysis.orbitals.get(level.key) {
+                for part in &orbital.composition {
+                    match weights.iter_mut().find(|(atom, _)| *atom == part.atom) {
+                        Some((_, total)) => *total += part.share,
+                        None => weights.push((part.atom, part.share)),
+                    }
+                }
+            }
+            weights.retain(|(_, w)| *w > 0.05);
+            weights
+        } else {
+            level
+                .key
+                .checked_sub(diptych::diagram::build::LOCALIZED_KEY_OFFSET)
+                .and_then(|n| analysis.localized.get(n))
+                .map(|orbital| {
+                    let share = 1.0 / orbital.atoms.len().max(1) as f64;
+                    orbital.atoms.iter().map(|&atom| (atom, share)).collect()
+                })
+                .unwrap_or_default()
+        }
+    }
+
+    /// Lays the diagram out again (after a new analysis, or new titles or threshold).
+    pub fn rebuild_diagram(&mut self) {
+        let options = DiagramOptions {
+            titles: self.project.titles.clone(),
+            link_threshold: self.project.view.link_threshold,
+            ..DiagramOptions::default()
+        };
+        self.diagram = self
+            .analysis
+            .as_ref()
+            .map(|analysis| diagram_for(analysis, &options));
     }
 
     /// Replaces the document with a file's contents; on failure the current document stays.
@@ -130,6 +189,7 @@ impl AppState {
                 };
                 self.path = Some(path);
                 self.selected_atom = None;
+                self.selected_level = None;
                 self.camera = Camera::default();
                 self.document_changed();
                 self.dirty = false;

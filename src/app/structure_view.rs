@@ -57,8 +57,10 @@ pub fn show(
     molecule: &Molecule,
     camera: &mut Camera,
     selected: Option<usize>,
+    halo_weights: &[(usize, f64)],
 ) -> ViewEvents {
-    let size = ui.available_size().max(Vec2::splat(80.0));
+    let visible = ui.available_rect_before_wrap().intersect(ui.clip_rect());
+    let size = visible.size().max(Vec2::splat(80.0));
     let (response, painter) = ui.allocate_painter(size, Sense::click_and_drag());
     let rect = response.rect;
     let mut events = ViewEvents::default();
@@ -153,6 +155,21 @@ pub fn show(
                     highlight,
                 );
                 painter.circle_stroke(p.screen, p.radius, Stroke::new(1.2, outline));
+                if let Some(&(_, weight)) = halo_weights.iter().find(|(atom, _)| *atom == index) {
+                    // The hovered orbital's share on this atom: a translucent halo.
+                    let alpha = (40.0 + 180.0 * weight.clamp(0.0, 1.0)) as u8;
+                    painter.circle_filled(
+                        p.screen,
+                        p.radius * (1.0 + 0.6 * weight.clamp(0.0, 1.0) as f32),
+                        Color32::from_rgba_unmultiplied(
+                            ACCENT.r(),
+                            ACCENT.g(),
+                            ACCENT.b(),
+                            alpha / 2,
+                        ),
+                    );
+                    painter.circle_stroke(p.screen, p.radius + 2.0, Stroke::new(2.0, ACCENT));
+                }
                 if selected == Some(index) {
                     painter.circle_stroke(p.screen, p.radius + 4.0, Stroke::new(2.5, ACCENT));
                 }
