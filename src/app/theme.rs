@@ -60,20 +60,7 @@ pub fn mix(colour: Color32, other: Color32, amount: f32) -> Color32 {
 /// Selection and hover accent (a deep teal).
 pub const ACCENT: Color32 = Color32::from_rgb(0, 128, 128);
 
-/// Bar colour of a level from its label: one muted accent per irrep family or per kind
-/// of localized orbital; `ink` for anything else.
+/// Bar colour of a level: the library's diagram palette, or `ink`.
 pub fn level_colour(label: &str, ink: Color32) -> Color32 {
-    let first = label.chars().find(|c| c.is_alphabetic());
-    match first {
-        Some('a') => Color32::from_rgb(46, 110, 140),
-        Some('b') => Color32::from_rgb(170, 110, 40),
-        Some('e') => Color32::from_rgb(120, 80, 150),
-        Some('t') => Color32::from_rgb(60, 130, 80),
-        Some('g') | Some('h') => Color32::from_rgb(150, 70, 90),
-        Some('σ') => Color32::from_rgb(46, 110, 140),
-        Some('π') => Color32::from_rgb(60, 130, 80),
-        Some('n') => Color32::from_rgb(170, 80, 60),
-        Some('δ') | Some('φ') => Color32::from_rgb(120, 80, 150),
-        _ => ink,
-    }
+    diptych::diagram::style::level_rgb(label).map_or(ink, |[r, g, b]| Color32::from_rgb(r, g, b))
 }

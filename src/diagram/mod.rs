@@ -4,6 +4,9 @@
 
 pub mod build;
 pub mod layout;
+pub mod style;
+pub mod svg;
 
 pub use build::{DiagramOptions, diagram_for};
 pub use layout::{Diagram, LadderInput, LevelInput, LinkInput, Side, layout};
+pub use svg::{SvgOptions, to_svg};
