@@ -3,3 +3,4 @@
 //! knows nothing of any GUI toolkit; `src/main.rs` and `src/app/` are thin shells over it.
 
 pub mod chem;
+pub mod symmetry;

@@ -1,0 +1,730 @@
+//! Point-group detection by the standard route: translate to the centre of mass, group the
+//! atoms into candidate symmetry-equivalent sets (same element, same distance from the centre
+//! within the tolerance), propose axes from the inertia tensor and from the atoms (atom
+//! directions, midpoints and normals of pairs, normals of isosceles triples from the
+//! smallest set), test each axis for its highest rotation order, test mirror planes, the
+//! inversion centre and S2n axes, and classify the elements found with the usual flow chart
+//! (Cotton, *Chemical Applications of Group Theory*, 3rd ed., §3.14). The group's ideal
+//! operations are then placed in a standard frame fitted to the molecule (refined by a
+//! Kabsch fit of the averaged geometry, Kabsch 1976) and each is matched to an atom
+//! permutation. Every search is bounded by the number of atoms.
+
+use nalgebra::{Matrix3, SymmetricEigen, Vector3};
+
+use super::ops::{PointGroup, classify, icosahedral_c5_axis, improper, reflection, rotation};
+use super::tables::character_table;
+use super::{
+    AxisConvention, MAX_TOLERANCE, Symmetry, SymmetryError, SymmetryOperation, SymmetrySettings,
+};
+use crate::chem::Molecule;
+use crate::chem::molecule::MAX_ATOMS;
+
+/// Atoms prepared for operation tests.
+struct Prepared {
+    pos: Vec<Vector3<f64>>,
+    mass: Vec<f64>,
+    set_of: Vec<usize>,
+    sets: Vec<Vec<usize>>,
+    tol: f64,
+}
+
+impl Prepared {
+    /// The atom permutation of `r` if every atom maps within `tol` of a partner.
+    fn matches(&self, r: &Matrix3<f64>, tol: f64) -> Option<Vec<usize>> {
+        let n = self.pos.len();
+        let mut perm = vec![usize::MAX; n];
+        let mut used = vec![false; n];
+        let tol2 = tol * tol;
+        for (i, slot) in perm.iter_mut().enumerate() {
+            let y = r * self.pos[i];
+            let mut best = None;
+            let mut best_d = tol2;
+            for &j in &self.sets[self.set_of[i]] {
+                if used[j] {
+                    continue;
+                }
+                let d = (y - self.pos[j]).norm_squared();
+                if d < best_d {
+                    best_d = d;
+                    best = Some(j);
+                }
+            }
+            let j = best?;
+            used[j] = true;
+            *slot = j;
+        }
+        Some(perm)
+    }
+
+    fn is_symmetry(&self, r: &Matrix3<f64>) -> bool {
+        self.matches(r, self.tol).is_some()
+    }
+
+    /// Number of atoms within `tol` of the line through the origin along `axis`.
+    fn atoms_on_axis(&self, axis: &Vector3<f64>) -> usize {
+        self.pos
+            .iter()
+            .filter(|p| p.cross(axis).norm() < self.tol)
+            .count()
+    }
+
+    fn mass_on_axis(&self, axis: &Vector3<f64>) -> f64 {
+        self.pos
+            .iter()
+            .zip(&self.mass)
+            .filter(|(p, _)| p.cross(axis).norm() < self.tol)
+            .map(|(_, m)| m)
+            .sum()
+    }
+
+    fn atoms_in_plane(&self, normal: &Vector3<f64>) -> (usize, f64) {
+        let mut count = 0;
+        let mut mass = 0.0;
+        for (p, m) in self.pos.iter().zip(&self.mass) {
+            if p.dot(normal).abs() < self.tol {
+                count += 1;
+                mass += m;
+            }
+        }
+        (count, mass)
+    }
+}
+
+fn gcd(a: usize, b: usize) -> usize {
+    if b == 0 { a } else { gcd(b, a % b) }
+}
+
+fn parallel(a: &Vector3<f64>, b: &Vector3<f64>) -> bool {
+    a.cross(b).norm() < 0.02
+}
+
+fn perpendicular(a: &Vector3<f64>, b: &Vector3<f64>) -> bool {
+    a.dot(b).abs() < 0.02
+}
+
+/// Found elements.
+struct Elements {
+    /// Proper axes with their highest order.
+    axes: Vec<(Vector3<f64>, u32)>,
+    mirrors: Vec<Vector3<f64>>,
+    inversion: bool,
+}
+
+fn validate(molecule: &Molecule, settings: &SymmetrySettings) -> Result<(), SymmetryError> {
+    let tol = settings.tolerance;
+    if !(tol.is_finite() && tol > 0.0 && tol <= MAX_TOLERANCE) {
+        return Err(SymmetryError::InvalidTolerance(tol));
+    }
+    let n = molecule.atoms.len();
+    if n == 0 {
+        return Err(SymmetryError::NoAtoms);
+    }
+    if n > MAX_ATOMS {
+        return Err(SymmetryError::TooManyAtoms(n));
+    }
+    for (i, atom) in molecule.atoms.iter().enumerate() {
+        if atom.position.iter().any(|x| !x.is_finite()) {
+            return Err(SymmetryError::NonFiniteCoordinate(i));
+        }
+    }
+    if n == 1 {
+        return Err(SymmetryError::SingleAtom);
+    }
+    Ok(())
+}
+
+fn prepare(molecule: &Molecule, origin: &Vector3<f64>, tol: f64) -> Prepared {
+    let pos: Vec<Vector3<f64>> = molecule.atoms.iter().map(|a| a.position - origin).collect();
+    let mass: Vec<f64> = molecule.atoms.iter().map(|a| a.element.mass()).collect();
+    let n = pos.len();
+    let mut order: Vec<usize> = (0..n).collect();
+    let key = |i: usize| (molecule.atoms[i].element.atomic_number(), pos[i].norm());
+    order.sort_by(|&a, &b| {
+        let (ea, ra) = key(a);
+        let (eb, rb) = key(b);
+        ea.cmp(&eb).then(ra.total_cmp(&rb))
+    });
+    let mut sets: Vec<Vec<usize>> = Vec::new();
+    let mut set_of = vec![0; n];
+    let mut last: Option<(u8, f64)> = None;
+    for &i in &order {
+        let (e, r) = key(i);
+        let new_set = match last {
+            Some((le, lr)) => le != e || r - lr > tol,
+            None => true,
+        };
+        if new_set {
+            sets.push(Vec::new());
+        }
+        let s = sets.len() - 1;
+        sets[s].push(i);
+        set_of[i] = s;
+        last = Some((e, r));
+    }
+    Prepared {
+        pos,
+        mass,
+        set_of,
+        sets,
+        tol,
+    }
+}
+
+fn inertia_axes(p: &Prepared) -> (Vec<Vector3<f64>>, [f64; 3]) {
+    let mut t = Matrix3::zeros();
+    for (x, m) in p.pos.iter().zip(&p.mass) {
+        t += (Matrix3::identity() * x.norm_squared() - x * x.transpose()) * *m;
+    }
+    let eig = SymmetricEigen::new(t);
+    let mut idx = [0usize, 1, 2];
+    idx.sort_by(|&a, &b| eig.eigenvalues[a].total_cmp(&eig.eigenvalues[b]));
+    let axes = idx
+        .iter()
+        .map(|&i| eig.eigenvectors.column(i).into_owned())
+        .collect();
+    let moments = [
+        eig.eigenvalues[idx[0]],
+        eig.eigenvalues[idx[1]],
+        eig.eigenvalues[idx[2]],
+    ];
+    (axes, moments)
+}
+
+/// Candidate axis directions, best-determined first.
+fn axis_candidates(
+    p: &Prepared,
+    inertia: &[Vector3<f64>],
+    moments: &[f64; 3],
+) -> Vec<Vector3<f64>> {
+    let tol = p.tol;
+    let mut c: Vec<(f64, Vector3<f64>)> = Vec::new();
+    let scale = moments[2].abs().max(1e-12);
+    for (k, ax) in inertia.iter().enumerate() {
+        let gap = (0..3)
+            .filter(|&j| j != k)
+            .map(|j| (moments[j] - moments[k]).abs())
+            .fold(f64::INFINITY, f64::min);
+        let quality = if gap / scale > 1e-3 { 1e6 } else { tol * 1.01 };
+        c.push((quality, *ax));
+    }
+    const PAIR_SET_LIMIT: usize = 240;
+    for set in &p.sets {
+        let members: Vec<usize> = set
+            .iter()
+            .copied()
+            .filter(|&i| p.pos[i].norm() > tol)
+            .collect();
+        for &a in &members {
+            c.push((p.pos[a].norm(), p.pos[a]));
+        }
+        if members.len() > PAIR_SET_LIMIT {
+            continue;
+        }
+        for (ia, &a) in members.iter().enumerate() {
+            for &b in &members[ia + 1..] {
+                let (pa, pb) = (p.pos[a], p.pos[b]);
+                let mid = pa + pb;
+                c.push((mid.norm() / 2.0, mid));
+                let cr = pa.cross(&pb);
+                c.push((cr.norm() / pa.norm().max(pb.norm()), cr));
+            }
+        }
+    }
+    // Isosceles triples (a, b, c) with |ab| = |bc| from the smallest set of ≥ 3 atoms off
+    // the centre: consecutive vertices of the polygon that any Cn (n ≥ 3) makes of a.
+    let smallest = p
+        .sets
+        .iter()
+        .map(|s| {
+            s.iter()
+                .copied()
+                .filter(|&i| p.pos[i].norm() > tol)
+                .collect::<Vec<_>>()
+        })
+        .filter(|s| s.len() >= 3)
+        .min_by_key(|s| s.len());
+    if let Some(s) = smallest
+        && s.len() <= 600
+    {
+        let a = p.pos[s[0]];
+        for &bi in &s[1..] {
+            let b = p.pos[bi];
+            let ab = (b - a).norm();
+            for &ci in &s[1..] {
+                if ci == bi {
+                    continue;
+                }
+                let cc = p.pos[ci];
+                if ((cc - b).norm() - ab).abs() > 2.0 * tol {
+                    continue;
+                }
+                let nrm = (b - a).cross(&(cc - b));
+                c.push((nrm.norm() / ab.max(1e-12), nrm));
+            }
+        }
+    }
+    c.retain(|(q, v)| *q > tol && v.norm() > 1e-12);
+    c.sort_by(|a, b| b.0.total_cmp(&a.0));
+    c.into_iter().map(|(_, v)| v.normalize()).collect()
+}
+
+fn divisors_desc(g: usize) -> Vec<u32> {
+    let mut d: Vec<u32> = (2..=g as u32)
+        .filter(|k| g.is_multiple_of(*k as usize))
+        .collect();
+    d.reverse();
+    d
+}
+
+fn find_elements(p: &Prepared, inertia: &[Vector3<f64>], moments: &[f64; 3]) -> Elements {
+    let candidates = axis_candidates(p, inertia, moments);
+    let mut axes: Vec<(Vector3<f64>, u32)> = Vec::new();
+    for v in &candidates {
+        if axes.iter().any(|(a, _)| parallel(a, v)) {
+            continue;
+        }
+        // The order divides the number of off-axis atoms of every set.
+        let mut g = 0usize;
+        for set in &p.sets {
+            let off = set
+                .iter()
+                .filter(|&&i| p.pos[i].cross(v).norm() >= p.tol)
+                .count();
+            g = gcd(g, off);
+        }
+        if g < 2 {
+            continue;
+        }
+        for n in divisors_desc(g) {
+            if p.is_symmetry(&rotation(v, 2.0 * std::f64::consts::PI / n as f64)) {
+                axes.push((*v, n));
+                break;
+            }
+        }
+    }
+    // Mirror planes: normals from the axes, inertia axes, pair differences and normals.
+    let mut normals: Vec<(f64, Vector3<f64>)> = Vec::new();
+    for (a, _) in &axes {
+        normals.push((1e6, *a));
+    }
+    for a in inertia {
+        normals.push((1e5, *a));
+    }
+    for set in &p.sets {
+        if set.len() > 240 {
+            continue;
+        }
+        for (ia, &a) in set.iter().enumerate() {
+            for &b in &set[ia + 1..] {
+                let d = p.pos[a] - p.pos[b];
+                normals.push((d.norm(), d));
+                let cr = p.pos[a].cross(&p.pos[b]);
+                normals.push((cr.norm() / p.pos[a].norm().max(p.pos[b].norm()), cr));
+            }
+        }
+    }
+    normals.retain(|(q, v)| *q > p.tol && v.norm() > 1e-12);
+    normals.sort_by(|a, b| b.0.total_cmp(&a.0));
+    let mut mirrors: Vec<Vector3<f64>> = Vec::new();
+    for (_, v) in normals {
+        let v = v.normalize();
+        if mirrors.iter().any(|m| parallel(m, &v)) {
+            continue;
+        }
+        if p.is_symmetry(&reflection(&v)) {
+            mirrors.push(v);
+        }
+    }
+    let inversion = p.is_symmetry(&(-Matrix3::identity()));
+    Elements {
+        axes,
+        mirrors,
+        inversion,
+    }
+}
+
+fn orthonormal_frame(x: Vector3<f64>, z: Vector3<f64>) -> Matrix3<f64> {
+    let z = z.normalize();
+    let mut x = x - z * x.dot(&z);
+    if x.norm() < 1e-6 {
+        x = any_perpendicular(&z);
+    }
+    let x = x.normalize();
+    let y = z.cross(&x);
+    Matrix3::from_rows(&[x.transpose(), y.transpose(), z.transpose()])
+}
+
+fn any_perpendicular(z: &Vector3<f64>) -> Vector3<f64> {
+    let trial = if z.x.abs() < 0.9 {
+        Vector3::x()
+    } else {
+        Vector3::y()
+    };
+    (trial - z * trial.dot(z)).normalize()
+}
+
+/// A direction perpendicular to z toward the first atom off the axis.
+fn x_from_atoms(p: &Prepared, z: &Vector3<f64>) -> Vector3<f64> {
+    for set in &p.sets {
+        for &i in set {
+            let v = p.pos[i] - z * p.pos[i].dot(z);
+            if v.norm() > p.tol {
+                return v;
+            }
+        }
+    }
+    any_perpendicular(z)
+}
+
+/// Picks the axis through most atoms (then most mass; then first).
+fn best_axis(p: &Prepared, list: &[Vector3<f64>]) -> Option<Vector3<f64>> {
+    let mut best: Option<(usize, f64, Vector3<f64>)> = None;
+    for v in list {
+        let count = p.atoms_on_axis(v);
+        let mass = p.mass_on_axis(v);
+        let better = match best {
+            None => true,
+            Some((c, m, _)) => count > c || (count == c && mass > m + 1e-9),
+        };
+        if better {
+            best = Some((count, mass, *v));
+        }
+    }
+    best.map(|b| b.2)
+}
+
+fn classify_elements(
+    p: &Prepared,
+    e: &Elements,
+    convention: AxisConvention,
+) -> (PointGroup, Matrix3<f64>) {
+    use std::f64::consts::PI;
+    let high: Vec<&(Vector3<f64>, u32)> = e.axes.iter().filter(|(_, n)| *n >= 3).collect();
+    if high.len() >= 2 {
+        let has = |k: u32| e.axes.iter().any(|(_, n)| *n == k);
+        let (group, key_order) = if has(5) {
+            (
+                if e.inversion {
+                    PointGroup::Ih
+                } else {
+                    PointGroup::I
+                },
+                2,
+            )
+        } else if has(4) {
+            (
+                if e.inversion {
+                    PointGroup::Oh
+                } else {
+                    PointGroup::O
+                },
+                4,
+            )
+        } else if e.inversion {
+            (PointGroup::Th, 2)
+        } else if !e.mirrors.is_empty() {
+            (PointGroup::Td, 2)
+        } else {
+            (PointGroup::T, 2)
+        };
+        let key: Vec<Vector3<f64>> = e
+            .axes
+            .iter()
+            .filter(|(_, n)| *n == key_order)
+            .map(|(v, _)| *v)
+            .collect();
+        let z = key.first().copied().unwrap_or_else(Vector3::z);
+        let x = key
+            .iter()
+            .find(|v| perpendicular(v, &z))
+            .copied()
+            .unwrap_or_else(|| any_perpendicular(&z));
+        let mut frame = orthonormal_frame(x, z);
+        if matches!(group, PointGroup::I | PointGroup::Ih) {
+            let c5 = frame.transpose() * icosahedral_c5_axis();
+            if !p.is_symmetry(&rotation(&c5, 2.0 * PI / 5.0)) {
+                let y: Vector3<f64> = frame.row(1).transpose();
+                frame = orthonormal_frame(y, z);
+            }
+        }
+        return (group, frame);
+    }
+    if e.axes.is_empty() {
+        if let Some(m) = e.mirrors.first() {
+            return (PointGroup::Cs, orthonormal_frame(x_from_atoms(p, m), *m));
+        }
+        let group = if e.inversion {
+            PointGroup::Ci
+        } else {
+            PointGroup::C1
+        };
+        return (group, Matrix3::identity());
+    }
+    // Axial groups. Principal axis.
+    let n_max = e.axes.iter().map(|(_, n)| *n).max().unwrap_or(2);
+    let twofold: Vec<Vector3<f64>> = e.axes.iter().map(|(v, _)| *v).collect();
+    let s4 = |v: &Vector3<f64>| p.is_symmetry(&improper(v, PI / 2.0));
+    let mut z = if n_max >= 3 {
+        high[0].0
+    } else if twofold.len() >= 3 {
+        twofold
+            .iter()
+            .find(|v| s4(v))
+            .copied()
+            .unwrap_or(twofold[0])
+    } else {
+        twofold[0]
+    };
+    let n = n_max;
+    let perp_c2: Vec<Vector3<f64>> = e
+        .axes
+        .iter()
+        .filter(|(v, k)| *k >= 2 && perpendicular(v, &z))
+        .map(|(v, _)| *v)
+        .collect();
+    let sigma_h = e.mirrors.iter().any(|m| parallel(m, &z));
+    let sigma_v: Vec<Vector3<f64>> = e
+        .mirrors
+        .iter()
+        .filter(|m| perpendicular(m, &z))
+        .copied()
+        .collect();
+    let d2_like = n == 2 && perp_c2.len() >= 2;
+    let d2d = d2_like && s4(&z);
+    if !perp_c2.is_empty() {
+        let group = if sigma_h {
+            PointGroup::Dnh(n)
+        } else if !sigma_v.is_empty() {
+            PointGroup::Dnd(n)
+        } else {
+            PointGroup::Dn(n)
+        };
+        if d2_like && !d2d {
+            // D2 / D2h: three equivalent-looking C2 axes; choose by convention.
+            let all: Vec<Vector3<f64>> = {
+                let mut v = vec![z];
+                v.extend(perp_c2.iter().copied());
+                v
+            };
+            let planar_normal = all.iter().find(|v| {
+                let (count, _) = p.atoms_in_plane(v);
+                count == p.pos.len()
+            });
+            let frame = match planar_normal {
+                Some(normal) => {
+                    let in_plane: Vec<Vector3<f64>> = all
+                        .iter()
+                        .filter(|v| !parallel(v, normal))
+                        .copied()
+                        .collect();
+                    let main = best_axis(p, &in_plane).unwrap_or(z);
+                    match convention {
+                        AxisConvention::MullikenPerpendicularX => orthonormal_frame(*normal, main),
+                        AxisConvention::InPlaneX => orthonormal_frame(main, *normal),
+                    }
+                }
+                None => {
+                    let main = best_axis(p, &all).unwrap_or(z);
+                    let rest: Vec<Vector3<f64>> = all
+                        .iter()
+                        .filter(|v| !parallel(v, &main))
+                        .copied()
+                        .collect();
+                    let second = best_axis(p, &rest).unwrap_or_else(|| any_perpendicular(&main));
+                    orthonormal_frame(second, main)
+                }
+            };
+            return (group, frame);
+        }
+        let candidates: Vec<Vector3<f64>> = perp_c2
+            .iter()
+            .filter(|v| !parallel(v, &z))
+            .copied()
+            .collect();
+        let x = best_axis(p, &candidates).unwrap_or_else(|| any_perpendicular(&z));
+        return (group, orthonormal_frame(x, z));
+    }
+    if n == 2 && twofold.len() > 1 {
+        // Should not happen (two C2 axes imply a third); keep the first as principal.
+        z = twofold[0];
+    }
+    if sigma_h {
+        return (
+            PointGroup::Cnh(n),
+            orthonormal_frame(x_from_atoms(p, &z), z),
+        );
+    }
+    if !sigma_v.is_empty() {
+        // x lies in the σv containing the most atoms (C2v: the Mulliken convention).
+        let mut best: Option<(usize, f64, Vector3<f64>)> = None;
+        for m in &sigma_v {
+            let (count, mass) = p.atoms_in_plane(m);
+            let better = match best {
+                None => true,
+                Some((c, ms, _)) => count > c || (count == c && mass > ms + 1e-9),
+            };
+            if better {
+                best = Some((count, mass, *m));
+            }
+        }
+        let normal = best.map(|b| b.2).unwrap_or_else(|| any_perpendicular(&z));
+        let in_plane = z.cross(&normal);
+        let x = if n == 2 && convention == AxisConvention::MullikenPerpendicularX {
+            normal
+        } else {
+            in_plane
+        };
+        return (PointGroup::Cnv(n), orthonormal_frame(x, z));
+    }
+    if p.is_symmetry(&improper(&z, PI / n as f64)) {
+        return (
+            PointGroup::S(2 * n),
+            orthonormal_frame(x_from_atoms(p, &z), z),
+        );
+    }
+    (PointGroup::Cn(n), orthonormal_frame(x_from_atoms(p, &z), z))
+}
+
+/// Operations of `group` in the molecule frame given by `frame`.
+fn frame_operations(standard: &[Matrix3<f64>], frame: &Matrix3<f64>) -> Vec<Matrix3<f64>> {
+    standard
+        .iter()
+        .map(|s| frame.transpose() * s * frame)
+        .collect()
+}
+
+/// Kabsch refinement: the frame in which the group-averaged geometry best matches.
+fn refine_frame(
+    p: &Prepared,
+    standard: &[Matrix3<f64>],
+    perms: &[Vec<usize>],
+    frame: &Matrix3<f64>,
+) -> Matrix3<f64> {
+    let y: Vec<Vector3<f64>> = p.pos.iter().map(|x| frame * x).collect();
+    let h = standard.len() as f64;
+    let mut cov = Matrix3::zeros();
+    for i in 0..y.len() {
+        let mut avg = Vector3::zeros();
+        for (s, perm) in standard.iter().zip(perms) {
+            avg += s.transpose() * y[perm[i]];
+        }
+        avg /= h;
+        cov += avg * y[i].transpose();
+    }
+    let svd = cov.svd(true, true);
+    let (Some(u), Some(vt)) = (svd.u, svd.v_t) else {
+        return *frame;
+    };
+    let v = vt.transpose();
+    let d = (v * u.transpose()).determinant().signum();
+    let q = v * Matrix3::from_diagonal(&Vector3::new(1.0, 1.0, d)) * u.transpose();
+    // y ≈ Q ȳ, so the refined frame is Qᵀ F.
+    let f = q.transpose() * frame;
+    // Re-orthonormalize against rounding.
+    let z: Vector3<f64> = f.row(2).transpose();
+    let x: Vector3<f64> = f.row(0).transpose();
+    orthonormal_frame(x, z)
+}
+
+fn build_symmetry(
+    p: &Prepared,
+    group: PointGroup,
+    frame: Matrix3<f64>,
+    origin: Vector3<f64>,
+) -> Result<Symmetry, SymmetryError> {
+    let table = character_table(group);
+    let standard = &table.standard_operations;
+    let loose = (3.0 * p.tol).min(MAX_TOLERANCE);
+    let first: Option<Vec<Vec<usize>>> = frame_operations(standard, &frame)
+        .iter()
+        .map(|m| p.matches(m, loose))
+        .collect();
+    let Some(first) = first else {
+        return Err(SymmetryError::Inconsistent(group.to_string()));
+    };
+    let mut frame = frame;
+    let mut perms = first;
+    for _ in 0..2 {
+        let refined = refine_frame(p, standard, &perms, &frame);
+        let next: Option<Vec<Vec<usize>>> = frame_operations(standard, &refined)
+            .iter()
+            .map(|m| p.matches(m, loose))
+            .collect();
+        match next {
+            Some(next) => {
+                frame = refined;
+                perms = next;
+            }
+            None => break,
+        }
+    }
+    let matrices = frame_operations(standard, &frame);
+    let mut max_dev: f64 = 0.0;
+    for (m, perm) in matrices.iter().zip(&perms) {
+        for (i, &j) in perm.iter().enumerate() {
+            max_dev = max_dev.max((m * p.pos[i] - p.pos[j]).norm());
+        }
+    }
+    if max_dev > p.tol {
+        return Err(SymmetryError::Inconsistent(group.to_string()));
+    }
+    let operations = matrices
+        .into_iter()
+        .zip(perms)
+        .enumerate()
+        .map(|(k, (matrix, permutation))| SymmetryOperation {
+            matrix,
+            standard: standard[k],
+            kind: classify(&standard[k]),
+            class: table.operation_class[k],
+            permutation,
+        })
+        .collect();
+    Ok(Symmetry {
+        group,
+        operations,
+        origin,
+        frame,
+        table: (*table).clone(),
+        tolerance: p.tol,
+        max_deviation: max_dev,
+    })
+}
+
+/// Detects the point group of `molecule` within `settings.tolerance` (Å).
+pub fn detect(molecule: &Molecule, settings: &SymmetrySettings) -> Result<Symmetry, SymmetryError> {
+    validate(molecule, settings)?;
+    let tol = settings.tolerance;
+    let origin = molecule.centre_of_mass();
+    let p = prepare(molecule, &origin, tol);
+    for (i, a) in p.pos.iter().enumerate() {
+        for (j, b) in p.pos.iter().enumerate().skip(i + 1) {
+            if (a - b).norm() < 2.0 * tol.max(1e-6) {
+                return Err(SymmetryError::CoincidentAtoms(i, j));
+            }
+        }
+    }
+    // Linear molecules.
+    let far = p
+        .pos
+        .iter()
+        .copied()
+        .max_by(|a, b| a.norm().total_cmp(&b.norm()))
+        .unwrap_or_else(Vector3::z);
+    if far.norm() > tol {
+        let u = far.normalize();
+        if p.pos.iter().all(|x| x.cross(&u).norm() < tol) {
+            let group = if p.is_symmetry(&(-Matrix3::identity())) {
+                PointGroup::DInfH
+            } else {
+                PointGroup::CInfV
+            };
+            let frame = orthonormal_frame(any_perpendicular(&u), u);
+            return build_symmetry(&p, group, frame, origin);
+        }
+    }
+    let (inertia, moments) = inertia_axes(&p);
+    let elements = find_elements(&p, &inertia, &moments);
+    let (group, frame) = classify_elements(&p, &elements, settings.axis_convention);
+    build_symmetry(&p, group, frame, origin)
+}

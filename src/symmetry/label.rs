@@ -1,0 +1,332 @@
+//! Mulliken labels of molecular orbitals: orbitals are grouped into degenerate sets by
+//! energy, the character of each operation over a set is Σ_m c_mᵀ S Γ(R) c_m (the trace of
+//! the representation on the set's span), and the reduction of those characters gives the
+//! set's irrep (Cotton, *Chemical Applications of Group Theory*, 3rd ed., §4.3 and ch. 8).
+//! Sets are numbered by energy within each irrep; in the core-inclusive convention the core
+//! orbitals of the heavy atoms (1s for Li–Ne; 1s2s2p for Na–Ar; through 3p, and 3d for
+//! Ga–Kr, from K on), reduced over the symmetry-equivalent atoms, are counted first
+//! (common practice in photoelectron and MO texts, e.g. water's 1a1 is the O 1s core).
+//! A set that carries no single irrep within tolerance is labelled "?" with the reason.
+
+use nalgebra::DMatrix;
+use serde::{Deserialize, Serialize};
+
+use super::salc::{AoAction, ao_action, reduce_by_class, shell_matrix};
+use super::tables::IrrepLabel;
+use super::{Numbering, Symmetry};
+use crate::chem::Molecule;
+use crate::chem::ao::AtomicOrbital;
+
+/// Orbitals closer in energy than this (eV) form one degenerate set.
+pub const DEGENERACY_EV: f64 = 1e-3;
+/// A set is still tried together with its neighbour if the gap is below this (eV).
+pub const NEAR_DEGENERACY_EV: f64 = 0.05;
+
+/// The label of one orbital.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct OrbitalLabel {
+    pub irrep: Option<IrrepLabel>,
+    /// "2a1", "1e", "1b3u", "3σg+", or "?".
+    pub text: String,
+    /// Index of the degenerate set (ascending energy) the orbital belongs to.
+    pub degenerate_set: usize,
+    /// Why the label is "?".
+    pub reason: Option<String>,
+}
+
+/// Core shells (n, l) of an element.
+fn core_shells(z: u8) -> Vec<(u8, u8)> {
+    match z {
+        0..=2 => vec![],
+        3..=10 => vec![(1, 0)],
+        11..=18 => vec![(1, 0), (2, 0), (2, 1)],
+        19..=30 => vec![(1, 0), (2, 0), (2, 1), (3, 0), (3, 1)],
+        _ => vec![(1, 0), (2, 0), (2, 1), (3, 0), (3, 1), (3, 2)],
+    }
+}
+
+/// Number of core orbital sets of each irrep (index into `symmetry.table.irreps`).
+pub fn core_irrep_counts(symmetry: &Symmetry, molecule: &Molecule) -> Vec<usize> {
+    let traces: Vec<[f64; 3]> = symmetry
+        .operations
+        .iter()
+        .map(|op| {
+            let mut t = [0.0; 3];
+            for (l, slot) in t.iter_mut().enumerate() {
+                *slot = shell_matrix(l as u8, &op.matrix).trace();
+            }
+            t
+        })
+        .collect();
+    let chars: Vec<f64> = symmetry
+        .operations
+        .iter()
+        .zip(&traces)
+        .map(|(op, t)| {
+            let mut c = 0.0;
+            for (i, atom) in molecule.atoms.iter().enumerate() {
+                if op.permutation.get(i) == Some(&i) {
+                    for (_, l) in core_shells(atom.element.atomic_number()) {
+                        c += t[l as usize];
+                    }
+                }
+            }
+            c
+        })
+        .collect();
+    reduce_by_class(symmetry, &chars)
+        .iter()
+        .map(|x| x.round().max(0.0) as usize)
+        .collect()
+}
+
+fn unknown(set: usize, reason: String) -> OrbitalLabel {
+    OrbitalLabel {
+        irrep: None,
+        text: "?".into(),
+        degenerate_set: set,
+        reason: Some(reason),
+    }
+}
+
+/// Result of analysing a group of orbitals.
+enum SetResult {
+    /// One irrep (index).
+    Pure(usize),
+    /// Per-orbital irreps (accidental degeneracy of different irreps).
+    Split(Vec<usize>),
+    Mixed(String),
+}
+
+struct Context<'a> {
+    symmetry: &'a Symmetry,
+    actions: Vec<AoAction>,
+    sc: DMatrix<f64>,
+    coefficients: &'a DMatrix<f64>,
+}
+
+impl Context<'_> {
+    /// cᵀ S Γ(R) c for orbital m and every operation.
+    fn orbital_characters(&self, m: usize) -> Vec<f64> {
+        let n = self.coefficients.nrows();
+        let c: Vec<f64> = self.coefficients.column(m).iter().copied().collect();
+        let mut image = vec![0.0; n];
+        self.actions
+            .iter()
+            .map(|act| {
+                act.apply(&c, &mut image);
+                self.sc
+                    .column(m)
+                    .iter()
+                    .zip(&image)
+                    .map(|(a, b)| a * b)
+                    .sum()
+            })
+            .collect()
+    }
+
+    fn analyse(&self, members: &[usize], chars: &[Vec<f64>]) -> SetResult {
+        let table = &self.symmetry.table;
+        let mut total = vec![0.0; self.actions.len()];
+        for &m in members {
+            for (t, c) in total.iter_mut().zip(&chars[m]) {
+                *t += c;
+            }
+        }
+        let mult = reduce_by_class(self.symmetry, &total);
+        let k = members.len();
+        if let Some(best) = (0..mult.len()).find(|&i| (mult[i] - 1.0).abs() < 0.1)
+            && table.irreps[best].dimension == k
+            && mult
+                .iter()
+                .enumerate()
+                .all(|(i, x)| i == best || x.abs() < 0.1)
+        {
+            return SetResult::Pure(best);
+        }
+        // Accidental degeneracy: each orbital on its own.
+        let mut each = Vec::new();
+        for &m in members {
+            let weights = reduce_by_class(self.symmetry, &chars[m]);
+            // Projection weight of irrep Γ: d_Γ × multiplicity of the 1-orbital "trace".
+            let w: Vec<f64> = weights
+                .iter()
+                .zip(&table.irreps)
+                .map(|(x, ir)| x * ir.dimension as f64)
+                .collect();
+            let (best, wb) =
+                w.iter().enumerate().fold(
+                    (0, f64::MIN),
+                    |acc, (i, &x)| if x > acc.1 { (i, x) } else { acc },
+                );
+            if wb < 0.9 {
+                let mut parts: Vec<(f64, String)> = w
+                    .iter()
+                    .zip(&table.irreps)
+                    .filter(|(x, _)| **x > 0.02)
+                    .map(|(x, ir)| (*x, format!("{:.0}% {}", 100.0 * x, ir.label)))
+                    .collect();
+                parts.sort_by(|a, b| b.0.total_cmp(&a.0));
+                let text: Vec<String> = parts.into_iter().map(|p| p.1).collect();
+                return SetResult::Mixed(format!(
+                    "the orbital mixes irreps ({}); the geometry is not symmetric enough within the tolerance",
+                    text.join(", ")
+                ));
+            }
+            each.push(best);
+        }
+        // Each irrep of dimension d must occur a multiple of d times.
+        for (i, ir) in table.irreps.iter().enumerate() {
+            let count = each.iter().filter(|&&b| b == i).count();
+            if count % ir.dimension != 0 {
+                return SetResult::Mixed(format!(
+                    "{count} orbital(s) of the {}-dimensional irrep {} are degenerate within {} eV; \
+                     the degeneracy is broken",
+                    ir.dimension, ir.label, DEGENERACY_EV
+                ));
+            }
+        }
+        SetResult::Split(each)
+    }
+}
+
+/// Labels orbitals (columns of `coefficients`, rows = `basis`) with energies ascending (eV)
+/// and AO overlap matrix `overlap`. Never fails: problems give "?" with a reason.
+pub fn label_orbitals(
+    symmetry: &Symmetry,
+    molecule: &Molecule,
+    basis: &[AtomicOrbital],
+    coefficients: &DMatrix<f64>,
+    energies: &[f64],
+    overlap: &DMatrix<f64>,
+    numbering: Numbering,
+) -> Vec<OrbitalLabel> {
+    let m = coefficients.ncols();
+    let n = basis.len();
+    if coefficients.nrows() != n
+        || overlap.nrows() != n
+        || overlap.ncols() != n
+        || energies.len() != m
+    {
+        let reason = format!(
+            "sizes do not match: {n} basis functions, coefficients {}×{}, overlap {}×{}, {} energies",
+            coefficients.nrows(),
+            coefficients.ncols(),
+            overlap.nrows(),
+            overlap.ncols(),
+            energies.len()
+        );
+        return (0..m).map(|i| unknown(i, reason.clone())).collect();
+    }
+    let actions: Result<Vec<AoAction>, _> = symmetry
+        .operations
+        .iter()
+        .map(|op| ao_action(op, basis))
+        .collect();
+    let actions = match actions {
+        Ok(a) => a,
+        Err(e) => return (0..m).map(|i| unknown(i, e.to_string())).collect(),
+    };
+    let ctx = Context {
+        symmetry,
+        actions,
+        sc: overlap * coefficients,
+        coefficients,
+    };
+    let chars: Vec<Vec<f64>> = (0..m).map(|k| ctx.orbital_characters(k)).collect();
+    // Degenerate sets by energy.
+    let mut sets: Vec<Vec<usize>> = Vec::new();
+    for k in 0..m {
+        match sets.last_mut() {
+            Some(last)
+                if last
+                    .last()
+                    .is_some_and(|&prev| (energies[k] - energies[prev]).abs() < DEGENERACY_EV) =>
+            {
+                last.push(k)
+            }
+            _ => sets.push(vec![k]),
+        }
+    }
+    let mut counters: Vec<usize> = match numbering {
+        Numbering::CoreInclusive => core_irrep_counts(symmetry, molecule),
+        Numbering::ValenceOnly => vec![0; symmetry.table.irreps.len()],
+    };
+    let mut labels: Vec<Option<OrbitalLabel>> = vec![None; m];
+    let mut s = 0;
+    let mut set_index = 0;
+    while s < sets.len() {
+        let mut members = sets[s].clone();
+        let mut result = ctx.analyse(&members, &chars);
+        let mut used = 1;
+        // A degeneracy split a little by an imperfect geometry: try with the next set.
+        if matches!(result, SetResult::Mixed(_))
+            && let Some(next) = sets.get(s + 1)
+        {
+            let gap = energies[next[0]] - energies[*members.last().unwrap_or(&next[0])];
+            if gap.abs() < NEAR_DEGENERACY_EV {
+                let mut joined = members.clone();
+                joined.extend(next.iter().copied());
+                let r2 = ctx.analyse(&joined, &chars);
+                if !matches!(r2, SetResult::Mixed(_)) {
+                    members = joined;
+                    result = r2;
+                    used = 2;
+                }
+            }
+        }
+        match result {
+            SetResult::Pure(irrep) => {
+                counters[irrep] += 1;
+                let label = symmetry.table.irreps[irrep].label.clone();
+                for &k in &members {
+                    labels[k] = Some(OrbitalLabel {
+                        text: format!("{}{}", counters[irrep], label),
+                        irrep: Some(label.clone()),
+                        degenerate_set: set_index,
+                        reason: None,
+                    });
+                }
+            }
+            SetResult::Split(each) => {
+                let mut seen: Vec<(usize, usize)> = Vec::new();
+                for (&k, &irrep) in members.iter().zip(&each) {
+                    let pos = seen.iter().position(|(i, _)| *i == irrep);
+                    let count = match pos {
+                        Some(p) => {
+                            seen[p].1 += 1;
+                            seen[p].1
+                        }
+                        None => {
+                            seen.push((irrep, 1));
+                            1
+                        }
+                    };
+                    let dim = symmetry.table.irreps[irrep].dimension;
+                    if count % dim == 1 || dim == 1 {
+                        counters[irrep] += 1;
+                    }
+                    let label = symmetry.table.irreps[irrep].label.clone();
+                    labels[k] = Some(OrbitalLabel {
+                        text: format!("{}{}", counters[irrep], label),
+                        irrep: Some(label),
+                        degenerate_set: set_index,
+                        reason: None,
+                    });
+                }
+            }
+            SetResult::Mixed(reason) => {
+                for &k in &members {
+                    labels[k] = Some(unknown(set_index, reason.clone()));
+                }
+            }
+        }
+        s += used;
+        set_index += 1;
+    }
+    labels
+        .into_iter()
+        .enumerate()
+        .map(|(k, l)| l.unwrap_or_else(|| unknown(k, "not analysed".into())))
+        .collect()
+}
