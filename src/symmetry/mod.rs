@@ -23,7 +23,9 @@ use crate::chem::Molecule;
 pub use detect::detect;
 pub use label::{OrbitalLabel, core_irrep_counts, label_orbitals};
 pub use ops::{OperationKind, PointGroup};
-pub use salc::{Salc, ao_representation, reduce, salcs, shell_matrix, span, span_text};
+pub use salc::{
+    Salc, ao_representation, average_over_group, reduce, salcs, shell_matrix, span, span_text,
+};
 pub use tables::{CharacterTable, ClassInfo, Irrep, IrrepLabel, LinearSign, character_table};
 
 /// Largest tolerance accepted (Å): beyond it distinct atoms could match each other.

@@ -290,3 +290,27 @@ pub fn salcs(symmetry: &Symmetry, basis: &[AtomicOrbital]) -> Result<Vec<Salc>, 
     }
     Ok(out)
 }
+
+/// The group average (1/h) Σ_R Γ(R) A Γ(R)ᵀ of a matrix over `basis`: the nearest
+/// matrix that commutes with every operation (used to build invariant test Hamiltonians
+/// and to clean matrices computed from a geometry that is symmetric only within tolerance).
+pub fn average_over_group(
+    symmetry: &Symmetry,
+    basis: &[AtomicOrbital],
+    matrix: &DMatrix<f64>,
+) -> Result<DMatrix<f64>, SymmetryError> {
+    let n = basis.len();
+    if matrix.nrows() != n || matrix.ncols() != n {
+        return Err(SymmetryError::DimensionMismatch(format!(
+            "a {}×{} matrix for {n} basis functions",
+            matrix.nrows(),
+            matrix.ncols()
+        )));
+    }
+    let mut sum = DMatrix::zeros(n, n);
+    for op in &symmetry.operations {
+        let g = ao_representation(op, basis)?;
+        sum += &g * matrix * g.transpose();
+    }
+    Ok(sum / symmetry.operations.len().max(1) as f64)
+}
