@@ -276,13 +276,74 @@ fn divisors_desc(g: usize) -> Vec<u32> {
     d
 }
 
+/// Rotation orders about `axis` compatible with the first off-axis atom of the smallest
+/// set: None if that atom has no partner at its height and radius.
+fn orders_from_reference(
+    p: &Prepared,
+    by_size: &[&Vec<usize>],
+    axis: &Vector3<f64>,
+) -> Option<Vec<u32>> {
+    let tol = p.tol;
+    for set in by_size {
+        for &a in set.iter() {
+            let pa = p.pos[a];
+            let ha = pa.dot(axis);
+            let ra = pa - axis * ha;
+            let rho = ra.norm();
+            if rho < tol {
+                continue;
+            }
+            let mut orders = Vec::new();
+            for &b in set.iter() {
+                if b == a {
+                    continue;
+                }
+                let pb = p.pos[b];
+                let hb = pb.dot(axis);
+                if (hb - ha).abs() > 2.0 * tol {
+                    continue;
+                }
+                let rb = pb - axis * hb;
+                if (rb.norm() - rho).abs() > 2.0 * tol {
+                    continue;
+                }
+                let phi = ra.cross(&rb).norm().atan2(ra.dot(&rb));
+                if phi < 1e-9 {
+                    continue;
+                }
+                let n = (2.0 * std::f64::consts::PI / phi).round();
+                if n < 2.0 {
+                    continue;
+                }
+                let chord = (phi - 2.0 * std::f64::consts::PI / n).abs() * rho;
+                if chord < 3.0 * tol && !orders.contains(&(n as u32)) {
+                    orders.push(n as u32);
+                }
+            }
+            return if orders.is_empty() {
+                None
+            } else {
+                Some(orders)
+            };
+        }
+    }
+    None
+}
+
 fn find_elements(p: &Prepared, inertia: &[Vector3<f64>], moments: &[f64; 3]) -> Elements {
     let candidates = axis_candidates(p, inertia, moments);
     let mut axes: Vec<(Vector3<f64>, u32)> = Vec::new();
+    let mut by_size: Vec<&Vec<usize>> = p.sets.iter().collect();
+    by_size.sort_by_key(|s| s.len());
     for v in &candidates {
         if axes.iter().any(|(a, _)| parallel(a, v)) {
             continue;
         }
+        // Orders allowed by one off-axis reference atom: its image under C_n lies at the
+        // same height and radius, 2π/n away.
+        let Some(orders) = orders_from_reference(p, &by_size, v) else {
+            continue;
+        };
         // The order divides the number of off-axis atoms of every set.
         let mut g = 0usize;
         for set in &p.sets {
@@ -296,6 +357,9 @@ fn find_elements(p: &Prepared, inertia: &[Vector3<f64>], moments: &[f64; 3]) -> 
             continue;
         }
         for n in divisors_desc(g) {
+            if !orders.contains(&n) {
+                continue;
+            }
             if p.is_symmetry(&rotation(v, 2.0 * std::f64::consts::PI / n as f64)) {
                 axes.push((*v, n));
                 break;
@@ -644,7 +708,21 @@ fn build_symmetry(
     };
     let mut frame = frame;
     let mut perms = first;
-    for _ in 0..2 {
+    let deviation = |frame: &Matrix3<f64>, perms: &[Vec<usize>]| {
+        let mut dev: f64 = 0.0;
+        for (m, perm) in frame_operations(standard, frame).iter().zip(perms) {
+            for (i, &j) in perm.iter().enumerate() {
+                dev = dev.max((m * p.pos[i] - p.pos[j]).norm());
+            }
+        }
+        dev
+    };
+    let rounds = if deviation(&frame, &perms) < 0.1 * p.tol {
+        0
+    } else {
+        2
+    };
+    for _ in 0..rounds {
         let refined = refine_frame(p, standard, &perms, &frame);
         let next: Option<Vec<Vec<usize>>> = frame_operations(standard, &refined)
             .iter()

@@ -103,37 +103,86 @@ struct Context<'a> {
     actions: Vec<AoAction>,
     sc: DMatrix<f64>,
     coefficients: &'a DMatrix<f64>,
+    /// First operation of each class.
+    class_reps: Vec<usize>,
+    class_sizes: Vec<f64>,
 }
 
+/// Leakage (1 − captured norm) above which a set's span is not invariant.
+const LEAK: f64 = 1e-3;
+
 impl Context<'_> {
-    /// cᵀ S Γ(R) c for orbital m and every operation.
-    fn orbital_characters(&self, m: usize) -> Vec<f64> {
-        let n = self.coefficients.nrows();
-        let c: Vec<f64> = self.coefficients.column(m).iter().copied().collect();
-        let mut image = vec![0.0; n];
-        self.actions
-            .iter()
-            .map(|act| {
-                act.apply(&c, &mut image);
-                self.sc
-                    .column(m)
-                    .iter()
-                    .zip(&image)
-                    .map(|(a, b)| a * b)
-                    .sum()
+    fn column(&self, m: usize) -> Vec<f64> {
+        self.coefficients.column(m).iter().copied().collect()
+    }
+
+    fn sc_dot(&self, m: usize, v: &[f64]) -> f64 {
+        self.sc.column(m).iter().zip(v).map(|(a, b)| a * b).sum()
+    }
+
+    /// cᵀ S Γ(R) c for orbital m and the operations `ops`.
+    fn characters(&self, m: usize, ops: &[usize]) -> Vec<f64> {
+        let c = self.column(m);
+        let mut image = vec![0.0; c.len()];
+        ops.iter()
+            .map(|&k| {
+                self.actions[k].apply(&c, &mut image);
+                self.sc_dot(m, &image)
             })
             .collect()
     }
 
-    fn analyse(&self, members: &[usize], chars: &[Vec<f64>]) -> SetResult {
+    /// Multiplicities from characters at the class representatives.
+    fn reduce_classes(&self, chi: &[f64]) -> Vec<f64> {
+        let h: f64 = self.class_sizes.iter().sum();
+        self.symmetry
+            .table
+            .irreps
+            .iter()
+            .map(|ir| {
+                let s: f64 = chi
+                    .iter()
+                    .enumerate()
+                    .map(|(c, x)| self.class_sizes[c] * ir.characters[c] * x)
+                    .sum();
+                s / (h * ir.reality as f64)
+            })
+            .collect()
+    }
+
+    /// Whether the span of `members` is carried into itself by the generators.
+    fn invariant(&self, members: &[usize]) -> bool {
+        let n = self.coefficients.nrows();
+        let mut image = vec![0.0; n];
+        for &g in &self.symmetry.table.generators {
+            let Some(action) = self.actions.get(g) else {
+                return false;
+            };
+            for &v in members {
+                let c = self.column(v);
+                let norm = self.sc_dot(v, &c);
+                action.apply(&c, &mut image);
+                let captured: f64 = members
+                    .iter()
+                    .map(|&m| self.sc_dot(m, &image).powi(2))
+                    .sum();
+                if norm <= 0.0 || (norm - captured) / norm > LEAK {
+                    return false;
+                }
+            }
+        }
+        true
+    }
+
+    fn analyse(&self, members: &[usize], class_chars: &[Vec<f64>]) -> SetResult {
         let table = &self.symmetry.table;
-        let mut total = vec![0.0; self.actions.len()];
+        let mut total = vec![0.0; self.class_reps.len()];
         for &m in members {
-            for (t, c) in total.iter_mut().zip(&chars[m]) {
+            for (t, c) in total.iter_mut().zip(&class_chars[m]) {
                 *t += c;
             }
         }
-        let mult = reduce_by_class(self.symmetry, &total);
+        let mult = self.reduce_classes(&total);
         let k = members.len();
         if let Some(best) = (0..mult.len()).find(|&i| (mult[i] - 1.0).abs() < 0.1)
             && table.irreps[best].dimension == k
@@ -141,13 +190,16 @@ impl Context<'_> {
                 .iter()
                 .enumerate()
                 .all(|(i, x)| i == best || x.abs() < 0.1)
+            && self.invariant(members)
         {
             return SetResult::Pure(best);
         }
-        // Accidental degeneracy: each orbital on its own.
+        // Accidental degeneracy or broken symmetry: each orbital on its own, with the
+        // characters of every operation.
+        let all: Vec<usize> = (0..self.actions.len()).collect();
         let mut each = Vec::new();
         for &m in members {
-            let weights = reduce_by_class(self.symmetry, &chars[m]);
+            let weights = reduce_by_class(self.symmetry, &self.characters(m, &all));
             // Projection weight of irrep Γ: d_Γ × multiplicity of the 1-orbital "trace".
             let w: Vec<f64> = weights
                 .iter()
@@ -227,13 +279,33 @@ pub fn label_orbitals(
         Ok(a) => a,
         Err(e) => return (0..m).map(|i| unknown(i, e.to_string())).collect(),
     };
+    let n_classes = symmetry.table.classes.len();
+    let mut class_reps = vec![usize::MAX; n_classes];
+    for (k, op) in symmetry.operations.iter().enumerate() {
+        if let Some(slot) = class_reps.get_mut(op.class)
+            && *slot == usize::MAX
+        {
+            *slot = k;
+        }
+    }
+    if class_reps.contains(&usize::MAX) {
+        let reason = "the operations do not cover every class of the table".to_string();
+        return (0..m).map(|i| unknown(i, reason.clone())).collect();
+    }
     let ctx = Context {
         symmetry,
         actions,
         sc: overlap * coefficients,
         coefficients,
+        class_reps,
+        class_sizes: symmetry
+            .table
+            .classes
+            .iter()
+            .map(|c| c.size as f64)
+            .collect(),
     };
-    let chars: Vec<Vec<f64>> = (0..m).map(|k| ctx.orbital_characters(k)).collect();
+    let chars: Vec<Vec<f64>> = (0..m).map(|k| ctx.characters(k, &ctx.class_reps)).collect();
     // Degenerate sets by energy.
     let mut sets: Vec<Vec<usize>> = Vec::new();
     for k in 0..m {

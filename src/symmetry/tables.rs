@@ -21,7 +21,7 @@ use nalgebra::{Matrix3, Vector3};
 use serde::{Deserialize, Serialize};
 
 use super::ops::{
-    OperationKind, PointGroup, classify, decompose, find_matrix, reflection, rotation,
+    OperationKind, PointGroup, classify, closure, decompose, find_matrix, reflection, rotation,
     rotation_angle, standard_operations,
 };
 
@@ -118,6 +118,8 @@ pub struct CharacterTable {
     pub standard_operations: Vec<Matrix3<f64>>,
     /// Class index of each standard operation.
     pub operation_class: Vec<usize>,
+    /// Indices of standard operations that generate the group.
+    pub generators: Vec<usize>,
 }
 
 impl CharacterTable {
@@ -707,7 +709,17 @@ fn build_table(group: PointGroup) -> CharacterTable {
     if !cubic {
         irreps.sort_by_key(|ir| label_sort_key(&ir.label));
     }
+    let mut generators = Vec::new();
+    let mut generated = vec![Matrix3::identity()];
+    for (k, op) in ops.iter().enumerate() {
+        if find_matrix(&generated, op).is_none() {
+            generators.push(k);
+            let mats: Vec<Matrix3<f64>> = generators.iter().map(|&g| ops[g]).collect();
+            generated = closure(&mats, h);
+        }
+    }
     CharacterTable {
+        generators,
         group,
         order: h,
         classes,
