@@ -112,3 +112,54 @@ fn textbook_point_groups_in_random_orientations() {
         failures.join("\n")
     );
 }
+
+fn lcg(seed: &mut u64) -> f64 {
+    *seed = seed
+        .wrapping_mul(6364136223846793005)
+        .wrapping_add(1442695040888963407);
+    (*seed >> 11) as f64 / (1u64 << 53) as f64 - 0.5
+}
+
+/// The same molecules with more noise and other tolerances: the textbook group while the
+/// noise stays well inside the tolerance; with very large tolerances an answer (never an
+/// error or a panic), possibly a different group with a note.
+#[test]
+fn tolerance_sweep() {
+    let data = fixture();
+    let mut seed = 99u64;
+    for (tol, noise, exact) in [
+        (0.001, 0.0, true),
+        (0.01, 0.003, true),
+        (0.05, 0.01, true),
+        (0.1, 0.02, true),
+        (0.3, 0.05, false),
+        (0.5, 0.0, false),
+    ] {
+        let settings = SymmetrySettings {
+            tolerance: tol,
+            ..SymmetrySettings::default()
+        };
+        for m in data["molecules"].as_array().unwrap() {
+            let name = m["name"].as_str().unwrap();
+            let textbook = m["textbook"].as_str().unwrap();
+            let symbols = m["symbols"].as_array().unwrap();
+            let coords = m["variants"][0]["coords"].as_array().unwrap();
+            let mut mol = molecule(name, symbols, coords);
+            for a in &mut mol.atoms {
+                for k in 0..3 {
+                    a.position[k] += noise * lcg(&mut seed);
+                }
+            }
+            let sym = detect(&mol, &settings).unwrap_or_else(|e| panic!("{name} at {tol} Å: {e}"));
+            if exact {
+                assert_eq!(
+                    sym.group.to_string(),
+                    textbook,
+                    "{name} at {tol} Å, noise {noise}"
+                );
+            } else if sym.group.to_string() != textbook {
+                println!("{name} at {tol} Å: {} ({:?})", sym.group, sym.notes);
+            }
+        }
+    }
+}

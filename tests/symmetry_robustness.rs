@@ -114,7 +114,7 @@ fn non_finite_and_coincident_atoms_are_typed_errors() {
         "same place",
         &[
             ("H", [0.0, 0.0, 0.0]),
-            ("H", [0.0, 0.0, 0.001]),
+            ("H", [0.0, 0.0, 0.0001]),
             ("O", [1.0, 0.0, 0.0]),
         ],
     );

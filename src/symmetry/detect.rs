@@ -26,6 +26,9 @@ struct Prepared {
     set_of: Vec<usize>,
     sets: Vec<Vec<usize>>,
     tol: f64,
+    /// Directions closer than this angle (radians) count as one axis: the angle through
+    /// which the outermost atom moves by twice the tolerance (at least 0.02, at most 0.3).
+    angle: f64,
 }
 
 impl Prepared {
@@ -94,12 +97,13 @@ fn gcd(a: usize, b: usize) -> usize {
     if b == 0 { a } else { gcd(b, a % b) }
 }
 
-fn parallel(a: &Vector3<f64>, b: &Vector3<f64>) -> bool {
-    a.cross(b).norm() < 0.02
+/// Two directions closer than `angle` (radians) are the same axis.
+fn parallel(a: &Vector3<f64>, b: &Vector3<f64>, angle: f64) -> bool {
+    a.cross(b).norm() < angle
 }
 
-fn perpendicular(a: &Vector3<f64>, b: &Vector3<f64>) -> bool {
-    a.dot(b).abs() < 0.02
+fn perpendicular(a: &Vector3<f64>, b: &Vector3<f64>, angle: f64) -> bool {
+    a.dot(b).abs() < angle
 }
 
 /// Found elements.
@@ -161,12 +165,14 @@ fn prepare(molecule: &Molecule, origin: &Vector3<f64>, tol: f64) -> Prepared {
         set_of[i] = s;
         last = Some((e, r));
     }
+    let r_max = pos.iter().map(|x| x.norm()).fold(0.0, f64::max).max(1e-9);
     Prepared {
         pos,
         mass,
         set_of,
         sets,
         tol,
+        angle: (2.0 * tol / r_max).clamp(0.02, 0.3),
     }
 }
 
@@ -336,7 +342,7 @@ fn find_elements(p: &Prepared, inertia: &[Vector3<f64>], moments: &[f64; 3]) -> 
     let mut by_size: Vec<&Vec<usize>> = p.sets.iter().collect();
     by_size.sort_by_key(|s| s.len());
     for v in &candidates {
-        if axes.iter().any(|(a, _)| parallel(a, v)) {
+        if axes.iter().any(|(a, _)| parallel(a, v, p.angle)) {
             continue;
         }
         // Orders allowed by one off-axis reference atom: its image under C_n lies at the
@@ -392,7 +398,7 @@ fn find_elements(p: &Prepared, inertia: &[Vector3<f64>], moments: &[f64; 3]) -> 
     let mut mirrors: Vec<Vector3<f64>> = Vec::new();
     for (_, v) in normals {
         let v = v.normalize();
-        if mirrors.iter().any(|m| parallel(m, &v)) {
+        if mirrors.iter().any(|m| parallel(m, &v, p.angle)) {
             continue;
         }
         if p.is_symmetry(&reflection(&v)) {
@@ -457,6 +463,50 @@ fn best_axis(p: &Prepared, list: &[Vector3<f64>]) -> Option<Vector3<f64>> {
     best.map(|b| b.2)
 }
 
+/// Standard frame of a cubic or icosahedral group with z and x along two of its
+/// perpendicular key axes (C2, or C4 for O/Oh); for I/Ih, x and y are swapped if needed so
+/// that (0, 1, φ) is a C5 axis.
+fn polyhedral_frame(
+    p: &Prepared,
+    group: PointGroup,
+    x: Vector3<f64>,
+    z: Vector3<f64>,
+) -> Matrix3<f64> {
+    let frame = orthonormal_frame(x, z);
+    if matches!(group, PointGroup::I | PointGroup::Ih) {
+        let c5 = frame.transpose() * icosahedral_c5_axis();
+        if !p.is_symmetry(&rotation(&c5, 2.0 * std::f64::consts::PI / 5.0)) {
+            let y: Vector3<f64> = frame.row(1).transpose();
+            return orthonormal_frame(y, z);
+        }
+    }
+    frame
+}
+
+/// Alternative frames for a polyhedral group: every perpendicular pair of key axes.
+fn polyhedral_alternatives(p: &Prepared, e: &Elements, group: PointGroup) -> Vec<Matrix3<f64>> {
+    let key_order = match group {
+        PointGroup::O | PointGroup::Oh => 4,
+        PointGroup::T | PointGroup::Td | PointGroup::Th | PointGroup::I | PointGroup::Ih => 2,
+        _ => return Vec::new(),
+    };
+    let key: Vec<Vector3<f64>> = e
+        .axes
+        .iter()
+        .filter(|(_, n)| *n == key_order)
+        .map(|(v, _)| *v)
+        .collect();
+    let mut frames = Vec::new();
+    for z in &key {
+        for x in &key {
+            if perpendicular(x, z, p.angle) && frames.len() < 64 {
+                frames.push(polyhedral_frame(p, group, *x, *z));
+            }
+        }
+    }
+    frames
+}
+
 fn classify_elements(
     p: &Prepared,
     e: &Elements,
@@ -500,18 +550,10 @@ fn classify_elements(
         let z = key.first().copied().unwrap_or_else(Vector3::z);
         let x = key
             .iter()
-            .find(|v| perpendicular(v, &z))
+            .find(|v| perpendicular(v, &z, p.angle))
             .copied()
             .unwrap_or_else(|| any_perpendicular(&z));
-        let mut frame = orthonormal_frame(x, z);
-        if matches!(group, PointGroup::I | PointGroup::Ih) {
-            let c5 = frame.transpose() * icosahedral_c5_axis();
-            if !p.is_symmetry(&rotation(&c5, 2.0 * PI / 5.0)) {
-                let y: Vector3<f64> = frame.row(1).transpose();
-                frame = orthonormal_frame(y, z);
-            }
-        }
-        return (group, frame);
+        return (group, polyhedral_frame(p, group, x, z));
     }
     if e.axes.is_empty() {
         if let Some(m) = e.mirrors.first() {
@@ -543,14 +585,14 @@ fn classify_elements(
     let perp_c2: Vec<Vector3<f64>> = e
         .axes
         .iter()
-        .filter(|(v, k)| *k >= 2 && perpendicular(v, &z))
+        .filter(|(v, k)| *k >= 2 && perpendicular(v, &z, p.angle))
         .map(|(v, _)| *v)
         .collect();
-    let sigma_h = e.mirrors.iter().any(|m| parallel(m, &z));
+    let sigma_h = e.mirrors.iter().any(|m| parallel(m, &z, p.angle));
     let sigma_v: Vec<Vector3<f64>> = e
         .mirrors
         .iter()
-        .filter(|m| perpendicular(m, &z))
+        .filter(|m| perpendicular(m, &z, p.angle))
         .copied()
         .collect();
     let d2_like = n == 2 && perp_c2.len() >= 2;
@@ -578,7 +620,7 @@ fn classify_elements(
                 Some(normal) => {
                     let in_plane: Vec<Vector3<f64>> = all
                         .iter()
-                        .filter(|v| !parallel(v, normal))
+                        .filter(|v| !parallel(v, normal, p.angle))
                         .copied()
                         .collect();
                     let main = best_axis(p, &in_plane).unwrap_or(z);
@@ -591,7 +633,7 @@ fn classify_elements(
                     let main = best_axis(p, &all).unwrap_or(z);
                     let rest: Vec<Vector3<f64>> = all
                         .iter()
-                        .filter(|v| !parallel(v, &main))
+                        .filter(|v| !parallel(v, &main, p.angle))
                         .copied()
                         .collect();
                     let second = best_axis(p, &rest).unwrap_or_else(|| any_perpendicular(&main));
@@ -602,7 +644,7 @@ fn classify_elements(
         }
         let candidates: Vec<Vector3<f64>> = perp_c2
             .iter()
-            .filter(|v| !parallel(v, &z))
+            .filter(|v| !parallel(v, &z, p.angle))
             .copied()
             .collect();
         let x = best_axis(p, &candidates).unwrap_or_else(|| any_perpendicular(&z));
@@ -698,7 +740,7 @@ fn build_symmetry(
 ) -> Result<Symmetry, SymmetryError> {
     let table = character_table(group);
     let standard = &table.standard_operations;
-    let loose = (3.0 * p.tol).min(MAX_TOLERANCE);
+    let loose = 3.0 * p.tol;
     let first: Option<Vec<Vec<usize>>> = frame_operations(standard, &frame)
         .iter()
         .map(|m| p.matches(m, loose))
@@ -766,10 +808,71 @@ fn build_symmetry(
         table: (*table).clone(),
         tolerance: p.tol,
         max_deviation: max_dev,
+        notes: Vec::new(),
     })
 }
 
+/// Subgroups to try, largest first, in the same frame, when `group` does not fit.
+fn subgroup_chain(group: PointGroup) -> Vec<PointGroup> {
+    use PointGroup::*;
+    let cyclic = |n: u32| -> Vec<PointGroup> {
+        (2..=n)
+            .rev()
+            .filter(|d| n.is_multiple_of(*d))
+            .map(Cn)
+            .collect()
+    };
+    let mut chain = match group {
+        Dnh(n) => vec![Dn(n), Cnv(n), Cnh(n)],
+        Dnd(n) => vec![Dn(n), Cnv(n), S(2 * n)],
+        Dn(_) | Cnv(_) | Cnh(_) | S(_) | Cn(_) => vec![],
+        _ => vec![],
+    };
+    match group {
+        Dnh(n) | Dnd(n) | Dn(n) | Cnv(n) | Cnh(n) | Cn(n) => chain.extend(cyclic(n)),
+        S(m) => chain.extend(cyclic(m / 2)),
+        _ => {}
+    }
+    chain.retain(|g| *g != group);
+    chain
+}
+
+/// Elements reduced to one principal axis (the best-determined one of highest order) with
+/// the twofold axes and planes that fit an axial group about it.
+fn axial_elements(p: &Prepared, e: &Elements) -> Elements {
+    let n_max = e.axes.iter().map(|(_, n)| *n).max().unwrap_or(1);
+    let Some(&(z, n)) = e.axes.iter().find(|(_, k)| *k == n_max) else {
+        return Elements {
+            axes: Vec::new(),
+            mirrors: e.mirrors.clone(),
+            inversion: e.inversion,
+        };
+    };
+    let mut axes = vec![(z, n)];
+    axes.extend(
+        e.axes
+            .iter()
+            .filter(|(v, k)| *k == 2 && perpendicular(v, &z, p.angle))
+            .copied(),
+    );
+    let mirrors = e
+        .mirrors
+        .iter()
+        .filter(|m| parallel(m, &z, p.angle) || perpendicular(m, &z, p.angle))
+        .copied()
+        .collect();
+    Elements {
+        axes,
+        mirrors,
+        inversion: e.inversion,
+    }
+}
+
 /// Detects the point group of `molecule` within `settings.tolerance` (Å).
+///
+/// The elements found are classified and the group's ideal operations are verified against
+/// the atoms. If they do not all fit (possible with a large tolerance, where spurious
+/// elements pass), the largest fitting subgroup in the same frame is reported, with a note.
 pub fn detect(molecule: &Molecule, settings: &SymmetrySettings) -> Result<Symmetry, SymmetryError> {
     validate(molecule, settings)?;
     let tol = settings.tolerance;
@@ -777,11 +880,12 @@ pub fn detect(molecule: &Molecule, settings: &SymmetrySettings) -> Result<Symmet
     let p = prepare(molecule, &origin, tol);
     for (i, a) in p.pos.iter().enumerate() {
         for (j, b) in p.pos.iter().enumerate().skip(i + 1) {
-            if (a - b).norm() < 2.0 * tol.max(1e-6) {
+            if (a - b).norm() < 1e-3 {
                 return Err(SymmetryError::CoincidentAtoms(i, j));
             }
         }
     }
+    let mut attempts: Vec<(PointGroup, Matrix3<f64>)> = Vec::new();
     // Linear molecules.
     let far = p
         .pos
@@ -792,17 +896,55 @@ pub fn detect(molecule: &Molecule, settings: &SymmetrySettings) -> Result<Symmet
     if far.norm() > tol {
         let u = far.normalize();
         if p.pos.iter().all(|x| x.cross(&u).norm() < tol) {
-            let group = if p.is_symmetry(&(-Matrix3::identity())) {
-                PointGroup::DInfH
-            } else {
-                PointGroup::CInfV
-            };
             let frame = orthonormal_frame(any_perpendicular(&u), u);
-            return build_symmetry(&p, group, frame, origin);
+            if p.is_symmetry(&(-Matrix3::identity())) {
+                attempts.push((PointGroup::DInfH, frame));
+            }
+            attempts.push((PointGroup::CInfV, frame));
         }
     }
     let (inertia, moments) = inertia_axes(&p);
     let elements = find_elements(&p, &inertia, &moments);
-    let (group, frame) = classify_elements(&p, &elements, settings.axis_convention);
-    build_symmetry(&p, group, frame, origin)
+    let primary = classify_elements(&p, &elements, settings.axis_convention);
+    let mut options = vec![primary];
+    let reduced = axial_elements(&p, &elements);
+    let axial = classify_elements(&p, &reduced, settings.axis_convention);
+    if axial.0 != primary.0 {
+        options.push(axial);
+    }
+    for (k, (group, frame)) in options.into_iter().enumerate() {
+        attempts.push((group, frame));
+        if k == 0 {
+            for alt in polyhedral_alternatives(&p, &elements, group) {
+                attempts.push((group, alt));
+            }
+        }
+        for sub in subgroup_chain(group) {
+            attempts.push((sub, frame));
+        }
+    }
+    if elements.inversion {
+        attempts.push((PointGroup::Ci, Matrix3::identity()));
+    }
+    if let Some(m) = elements.mirrors.first() {
+        attempts.push((PointGroup::Cs, orthonormal_frame(x_from_atoms(&p, m), *m)));
+    }
+    attempts.push((PointGroup::C1, Matrix3::identity()));
+    let first = attempts.first().map(|a| a.0);
+    for (group, frame) in attempts {
+        if let Ok(mut symmetry) = build_symmetry(&p, group, frame, origin) {
+            if let Some(first) = first
+                && first != group
+            {
+                symmetry.notes.push(format!(
+                    "the elements found within {tol} Å suggested {first}, whose operations do not \
+                     all fit; {group} is the largest group that fits"
+                ));
+            }
+            return Ok(symmetry);
+        }
+    }
+    Err(SymmetryError::Inconsistent(
+        first.map_or_else(|| "C1".to_string(), |g| g.to_string()),
+    ))
 }

@@ -130,6 +130,8 @@ pub struct Symmetry {
     pub tolerance: f64,
     /// Largest distance (Å) between an atom's image and its partner under any operation.
     pub max_deviation: f64,
+    /// Remarks for the user (e.g. a lower group reported because a higher one did not fit).
+    pub notes: Vec<String>,
 }
 
 impl Symmetry {
