@@ -224,3 +224,33 @@ fn an_incomplete_basis_is_a_typed_error() {
     assert!(span(&sym, &basis).is_err());
     assert!(salcs(&sym, &basis).is_err());
 }
+
+#[test]
+fn summaries_name_the_central_atom_and_ligand_salcs() {
+    use diptych::symmetry::summarize;
+    let m = ammonia();
+    let sym = detect(&m, &SymmetrySettings::default()).unwrap();
+    let s = summarize(&sym, &m);
+    assert_eq!(s.point_group, "C3v");
+    assert_eq!(s.central_atom, Some(0));
+    assert_eq!(s.ligand_sigma.as_deref(), Some("a1 + e"));
+    assert_eq!(
+        s.central_orbitals,
+        vec![
+            ("s".into(), "a1".into()),
+            ("p".into(), "a1 + e".into()),
+            ("d".into(), "a1 + 2e".into())
+        ]
+    );
+    assert_eq!(s.equivalent_atoms, vec![vec![0], vec![1, 2, 3]]);
+    let m = sf6();
+    let sym = detect(&m, &SymmetrySettings::default()).unwrap();
+    let s = summarize(&sym, &m);
+    assert_eq!(s.ligand_sigma.as_deref(), Some("a1g + eg + t1u"));
+    assert_eq!(s.central_orbitals[2].1, "eg + t2g");
+    let m = ethylene();
+    let sym = detect(&m, &SymmetrySettings::default()).unwrap();
+    assert_eq!(summarize(&sym, &m).central_atom, None);
+    let json = serde_json::to_string(&summarize(&sym, &m)).unwrap();
+    assert!(json.contains("\"point_group\":\"D2h\""));
+}

@@ -12,6 +12,7 @@ pub mod detect;
 pub mod label;
 pub mod ops;
 pub mod salc;
+pub mod summary;
 pub mod tables;
 
 use nalgebra::{Matrix3, Vector3};
@@ -26,6 +27,7 @@ pub use ops::{OperationKind, PointGroup};
 pub use salc::{
     Salc, ao_representation, average_over_group, reduce, salcs, shell_matrix, span, span_text,
 };
+pub use summary::{SymmetrySummary, central_atom, summarize};
 pub use tables::{CharacterTable, ClassInfo, Irrep, IrrepLabel, LinearSign, character_table};
 
 /// Largest tolerance accepted (Å): beyond it distinct atoms could match each other.
