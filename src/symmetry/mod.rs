@@ -8,7 +8,9 @@
 //! frame fitted to the molecule, so that every operation set is an exact group. Character
 //! tables and labels follow Cotton and Atkins, Child and Phillips, *Tables for Group Theory*.
 
+mod axial;
 pub mod detect;
+mod frame;
 pub mod label;
 pub mod ops;
 pub mod salc;
