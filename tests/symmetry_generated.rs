@@ -106,3 +106,27 @@ fn every_group_is_recovered_from_a_generic_orbit() {
     }
     assert!(failures.is_empty(), "{}", failures.join("\n"));
 }
+
+#[test]
+fn a_481_atom_icosahedral_cluster_is_detected_quickly() {
+    let mut seeds = vec![
+        ("C", [1.31, 0.42, 0.77]),
+        ("C", [-0.52, 1.93, -1.21]),
+        ("H", [0.23, -1.37, 2.11]),
+        ("O", [2.2, 0.9, -0.4]),
+    ];
+    for s in &mut seeds {
+        for x in &mut s.1 {
+            *x *= 4.0;
+        }
+    }
+    let mut m = orbit_molecule(PointGroup::Ih, &seeds);
+    m.atoms.push(Atom::new(el("Fe"), [0.0, 0.0, 0.0]));
+    assert_eq!(m.atoms.len(), 481);
+    let moved = rotated(&m, [0.2, 0.5, -0.3], 1.7, [3.0, 0.0, -1.0]);
+    let start = std::time::Instant::now();
+    let sym = detect(&moved, &SymmetrySettings::default()).unwrap();
+    let elapsed = start.elapsed().as_secs_f64();
+    assert_eq!(sym.group, PointGroup::Ih);
+    assert!(elapsed < 5.0, "{elapsed} s");
+}

@@ -588,3 +588,23 @@ fn schoenflies_text_round_trips() {
     assert_eq!(PointGroup::DInfH.to_string(), "D∞h");
     assert_eq!(PointGroup::S(4).to_string(), "S4");
 }
+
+#[test]
+fn labels_print_in_lower_and_upper_case() {
+    let t = character_table("D3h".parse().unwrap());
+    let e1 = &t.irreps[t.irrep_index("E'").unwrap()].label;
+    assert_eq!(e1.to_string(), "e'");
+    assert_eq!(
+        (e1.letter.as_str(), e1.subscript.as_str(), e1.primes),
+        ("e", "", 1)
+    );
+    let a2 = &t.irreps[t.irrep_index("A2''").unwrap()].label;
+    assert_eq!(
+        (a2.letter.as_str(), a2.subscript.as_str(), a2.primes),
+        ("a", "2", 2)
+    );
+    let t = character_table("D6h".parse().unwrap());
+    let e = &t.irreps[t.irrep_index("E1g").unwrap()].label;
+    assert_eq!((e.letter.as_str(), e.subscript.as_str()), ("e", "1g"));
+    assert_eq!(e.to_string(), "e1g");
+}
