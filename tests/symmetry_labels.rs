@@ -308,3 +308,28 @@ fn broken_symmetry_gives_a_question_mark_with_a_reason() {
     let labels = label_orbitals(&sym, &m, &basis[..3], &c, &e, &s, Numbering::CoreInclusive);
     assert!(labels.iter().all(|l| l.text == "?" && l.reason.is_some()));
 }
+
+#[test]
+fn c1_molecules_are_numbered_a() {
+    // CHFClBr: C1; cores C 1s, F 1s, Cl 1s2s2p (5), Br through 3d (14) = 21 a core sets.
+    let m = mol(
+        "CHFClBr",
+        &[
+            ("C", [0.0, 0.0, 0.0]),
+            ("H", [0.63, 0.63, 0.63]),
+            ("F", [-0.78, -0.78, 0.78]),
+            ("Cl", [-1.02, 1.02, -1.02]),
+            ("Br", [1.12, -1.12, -1.12]),
+        ],
+    );
+    let sym = detect(&m, &SymmetrySettings::default()).unwrap();
+    assert_eq!(sym.group.to_string(), "C1");
+    let basis = valence_basis(&m);
+    let n = basis.len();
+    let (c, e) = invariant_orbitals(&sym, &basis, 3);
+    let s = DMatrix::identity(n, n);
+    let labels = label_orbitals(&sym, &m, &basis, &c, &e, &s, Numbering::CoreInclusive);
+    assert_eq!(labels[0].text, "22a");
+    let labels = label_orbitals(&sym, &m, &basis, &c, &e, &s, Numbering::ValenceOnly);
+    assert_eq!(labels[n - 1].text, format!("{n}a"));
+}

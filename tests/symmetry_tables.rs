@@ -608,3 +608,18 @@ fn labels_print_in_lower_and_upper_case() {
     assert_eq!((e.letter.as_str(), e.subscript.as_str()), ("e", "1g"));
     assert_eq!(e.to_string(), "e1g");
 }
+
+#[test]
+fn class_names_follow_the_books() {
+    let names = |g: &str| -> Vec<String> {
+        character_table(g.parse().unwrap())
+            .classes
+            .iter()
+            .map(|c| c.name.clone())
+            .collect()
+    };
+    assert_eq!(names("C3v"), ["E", "2C3", "3σv"]);
+    assert_eq!(names("Td"), ["E", "3C2", "8C3", "6S4", "6σd"]);
+    assert!(names("Ih").contains(&"15σ".to_string()));
+    assert!(names("D4h").contains(&"2C2''".to_string()));
+}

@@ -279,6 +279,10 @@ pub fn label_orbitals(
         Ok(a) => a,
         Err(e) => return (0..m).map(|i| unknown(i, e.to_string())).collect(),
     };
+    if symmetry.operations.len() == 1 && symmetry.table.irreps.len() == 1 {
+        // C1: every orbital is a; only the numbering needs work.
+        return label_trivial(symmetry, molecule, energies, numbering);
+    }
     let n_classes = symmetry.table.classes.len();
     let mut class_reps = vec![usize::MAX; n_classes];
     for (k, op) in symmetry.operations.iter().enumerate() {
@@ -401,4 +405,35 @@ pub fn label_orbitals(
         .enumerate()
         .map(|(k, l)| l.unwrap_or_else(|| unknown(k, "not analysed".into())))
         .collect()
+}
+
+/// Labels for the trivial group: sets by energy, all of irrep a.
+fn label_trivial(
+    symmetry: &Symmetry,
+    molecule: &Molecule,
+    energies: &[f64],
+    numbering: Numbering,
+) -> Vec<OrbitalLabel> {
+    let mut counter = match numbering {
+        Numbering::CoreInclusive => core_irrep_counts(symmetry, molecule)
+            .first()
+            .copied()
+            .unwrap_or(0),
+        Numbering::ValenceOnly => 0,
+    };
+    let Some(irrep) = symmetry.table.irreps.first() else {
+        return Vec::new();
+    };
+    let label = irrep.label.clone();
+    let mut out = Vec::with_capacity(energies.len());
+    for set in 0..energies.len() {
+        counter += 1;
+        out.push(OrbitalLabel {
+            irrep: Some(label.clone()),
+            text: format!("{counter}{label}"),
+            degenerate_set: set,
+            reason: None,
+        });
+    }
+    out
 }

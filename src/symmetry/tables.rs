@@ -345,6 +345,8 @@ fn class_name(group: PointGroup, members: &[Matrix3<f64>]) -> String {
                 } else {
                     "σd".to_string()
                 }
+            } else if matches!(group, PointGroup::Ih) {
+                "σ".to_string()
             } else if axis.iter().filter(|v| v.abs() > 1e-6).count() == 1 {
                 "σh".to_string()
             } else {
