@@ -11,7 +11,7 @@
 use nalgebra::DMatrix;
 use serde::{Deserialize, Serialize};
 
-use super::salc::{AoAction, ao_action, reduce_by_class, shell_matrix};
+use super::salc::{AoAction, ao_actions, reduce_by_class, shell_matrix};
 use super::tables::IrrepLabel;
 use super::{Numbering, Symmetry};
 use crate::chem::Molecule;
@@ -122,12 +122,24 @@ impl Context<'_> {
 
     /// cᵀ S Γ(R) c for orbital m and the operations `ops`.
     fn characters(&self, m: usize, ops: &[usize]) -> Vec<f64> {
-        let c = self.column(m);
-        let mut image = vec![0.0; c.len()];
+        let c = self.coefficients.column(m);
+        let sc = self.sc.column(m);
         ops.iter()
             .map(|&k| {
-                self.actions[k].apply(&c, &mut image);
-                self.sc_dot(m, &image)
+                // Σ_j c_j Σ_i Γ_ij (Sc)_i without forming the image.
+                self.actions[k]
+                    .columns
+                    .iter()
+                    .enumerate()
+                    .map(|(j, col)| {
+                        let cj = c[j];
+                        if cj == 0.0 {
+                            0.0
+                        } else {
+                            cj * col.iter().map(|&(i, g)| g * sc[i]).sum::<f64>()
+                        }
+                    })
+                    .sum()
             })
             .collect()
     }
@@ -270,11 +282,7 @@ pub fn label_orbitals(
         );
         return (0..m).map(|i| unknown(i, reason.clone())).collect();
     }
-    let actions: Result<Vec<AoAction>, _> = symmetry
-        .operations
-        .iter()
-        .map(|op| ao_action(op, basis))
-        .collect();
+    let actions = ao_actions(symmetry, basis);
     let actions = match actions {
         Ok(a) => a,
         Err(e) => return (0..m).map(|i| unknown(i, e.to_string())).collect(),

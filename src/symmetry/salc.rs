@@ -88,53 +88,93 @@ impl AoAction {
     }
 }
 
+/// The basis grouped into shells (atom, n, l) with the position of each real function.
+struct ShellIndex {
+    /// (atom, n, l, basis index of each function of the shell in `AngularKind::shell` order).
+    shells: Vec<(usize, u8, u8, [Option<usize>; 5])>,
+    lookup: std::collections::HashMap<(usize, u8, u8), usize>,
+}
+
+fn basis_index(basis: &[AtomicOrbital]) -> ShellIndex {
+    let mut index = ShellIndex {
+        shells: Vec::new(),
+        lookup: std::collections::HashMap::new(),
+    };
+    for (i, ao) in basis.iter().enumerate() {
+        let l = ao.kind.l();
+        let key = (ao.atom, ao.n, l);
+        let s = *index.lookup.entry(key).or_insert_with(|| {
+            index.shells.push((ao.atom, ao.n, l, [None; 5]));
+            index.shells.len() - 1
+        });
+        index.shells[s].3[kind_index(ao.kind)] = Some(i);
+    }
+    index
+}
+
+fn action_with_index(
+    operation: &SymmetryOperation,
+    basis: &[AtomicOrbital],
+    index: &ShellIndex,
+) -> Result<AoAction, SymmetryError> {
+    let mats: Vec<DMatrix<f64>> = (0..3).map(|l| shell_matrix(l, &operation.matrix)).collect();
+    let mut columns = vec![Vec::new(); basis.len()];
+    for &(atom, n, l, members) in &index.shells {
+        let Some(&target_atom) = operation.permutation.get(atom) else {
+            return Err(SymmetryError::BasisNotClosed(format!(
+                "atom {atom} of a basis function is not in the molecule"
+            )));
+        };
+        let target = index
+            .lookup
+            .get(&(target_atom, n, l))
+            .map(|&t| index.shells[t].3);
+        let m = &mats[l as usize];
+        for (j, source) in members.iter().enumerate() {
+            let Some(source) = *source else { continue };
+            let mut col = Vec::new();
+            for (k, kind) in AngularKind::shell(l).iter().enumerate() {
+                let c = m[(k, j)];
+                if c.abs() < 1e-10 {
+                    continue;
+                }
+                match target.and_then(|t| t[k]) {
+                    Some(i) => col.push((i, c)),
+                    None if c.abs() < 1e-6 => {}
+                    None => {
+                        return Err(SymmetryError::BasisNotClosed(format!(
+                            "the image of {} on atom {atom} needs {n}{} on atom {target_atom}",
+                            basis[source].label(),
+                            kind.label(),
+                        )));
+                    }
+                }
+            }
+            columns[source] = col;
+        }
+    }
+    Ok(AoAction { columns })
+}
+
 /// The action of `operation` on `basis`; an error if some image lies outside the basis.
 pub fn ao_action(
     operation: &SymmetryOperation,
     basis: &[AtomicOrbital],
 ) -> Result<AoAction, SymmetryError> {
-    use std::collections::HashMap;
-    let mut index: HashMap<(usize, u8, AngularKind), usize> = HashMap::new();
-    for (i, ao) in basis.iter().enumerate() {
-        index.insert((ao.atom, ao.n, ao.kind), i);
-    }
-    let mats: Vec<DMatrix<f64>> = (0..3).map(|l| shell_matrix(l, &operation.matrix)).collect();
-    let mut columns = Vec::with_capacity(basis.len());
-    for ao in basis {
-        let Some(&target_atom) = operation.permutation.get(ao.atom) else {
-            return Err(SymmetryError::BasisNotClosed(format!(
-                "atom {} of orbital {} is not in the molecule",
-                ao.atom,
-                ao.label()
-            )));
-        };
-        let l = ao.kind.l();
-        let m = &mats[l as usize];
-        let j = kind_index(ao.kind);
-        let mut col = Vec::new();
-        for (k, kind) in AngularKind::shell(l).iter().enumerate() {
-            let c = m[(k, j)];
-            if c.abs() < 1e-10 {
-                continue;
-            }
-            match index.get(&(target_atom, ao.n, *kind)) {
-                Some(&i) => col.push((i, c)),
-                None if c.abs() < 1e-6 => {}
-                None => {
-                    return Err(SymmetryError::BasisNotClosed(format!(
-                        "the image of {} on atom {} needs {}{} on atom {}",
-                        ao.label(),
-                        ao.atom,
-                        ao.n,
-                        kind.label(),
-                        target_atom
-                    )));
-                }
-            }
-        }
-        columns.push(col);
-    }
-    Ok(AoAction { columns })
+    action_with_index(operation, basis, &basis_index(basis))
+}
+
+/// The actions of every operation of `symmetry` on `basis`, in operation order.
+pub fn ao_actions(
+    symmetry: &Symmetry,
+    basis: &[AtomicOrbital],
+) -> Result<Vec<AoAction>, SymmetryError> {
+    let index = basis_index(basis);
+    symmetry
+        .operations
+        .iter()
+        .map(|op| action_with_index(op, basis, &index))
+        .collect()
 }
 
 /// The full representation matrix Γ(R) of `operation` on `basis` (column j = image of
@@ -203,10 +243,10 @@ pub(crate) fn reduce_by_class(symmetry: &Symmetry, characters: &[f64]) -> Vec<f6
 
 /// The irreps spanned by a set of orbitals: multiplicity per irrep.
 pub fn span(symmetry: &Symmetry, basis: &[AtomicOrbital]) -> Result<Vec<usize>, SymmetryError> {
-    let mut chars = Vec::with_capacity(symmetry.operations.len());
-    for op in &symmetry.operations {
-        chars.push(ao_action(op, basis)?.trace());
-    }
+    let chars: Vec<f64> = ao_actions(symmetry, basis)?
+        .iter()
+        .map(AoAction::trace)
+        .collect();
     reduce(symmetry, &chars)
 }
 
@@ -246,11 +286,7 @@ pub struct Salc {
 /// multiplicity times the dimension.
 pub fn salcs(symmetry: &Symmetry, basis: &[AtomicOrbital]) -> Result<Vec<Salc>, SymmetryError> {
     let n = basis.len();
-    let actions: Vec<AoAction> = symmetry
-        .operations
-        .iter()
-        .map(|op| ao_action(op, basis))
-        .collect::<Result<_, _>>()?;
+    let actions = ao_actions(symmetry, basis)?;
     let h = symmetry.operations.len() as f64;
     let mut out = Vec::new();
     let mut tmp = vec![0.0; n];
