@@ -333,3 +333,32 @@ fn c1_molecules_are_numbered_a() {
     let labels = label_orbitals(&sym, &m, &basis, &c, &e, &s, Numbering::ValenceOnly);
     assert_eq!(labels[n - 1].text, format!("{n}a"));
 }
+
+/// A geometry that is symmetric only within the tolerance still gets labels (the small
+/// splitting of e pairs is bridged), and its symmetrized version gets the same labels.
+#[test]
+fn slightly_distorted_geometries_are_still_labelled() {
+    for (base, group) in [(ammonia(), "C3v"), (methane(), "Td"), (benzene(), "D6h")] {
+        let mut m = base.clone();
+        // Push one atom by 0.004 Å (inside the default 0.01 Å tolerance).
+        m.atoms[1].position += Vector3::new(0.003, -0.002, 0.002);
+        let sym = detect(&m, &SymmetrySettings::default()).unwrap();
+        assert_eq!(sym.group.to_string(), group);
+        let basis = valence_basis(&m);
+        let label = |geometry: &Molecule| -> Vec<String> {
+            let h = two_centre_matrix(geometry, &basis, 12.0, true);
+            let s = two_centre_matrix(geometry, &basis, 0.3, false);
+            let (c, e) = solve(&h, &s);
+            label_orbitals(&sym, geometry, &basis, &c, &e, &s, Numbering::CoreInclusive)
+                .into_iter()
+                .map(|l| {
+                    assert!(l.irrep.is_some(), "{}: {:?}", geometry.name, l.reason);
+                    l.text
+                })
+                .collect()
+        };
+        let distorted = label(&m);
+        let ideal = label(&diptych::symmetry::symmetrize(&m, &sym));
+        assert_eq!(distorted, ideal, "{group}");
+    }
+}

@@ -19,8 +19,10 @@ use crate::chem::ao::AtomicOrbital;
 
 /// Orbitals closer in energy than this (eV) form one degenerate set.
 pub const DEGENERACY_EV: f64 = 1e-3;
-/// A set is still tried together with its neighbour if the gap is below this (eV).
-pub const NEAR_DEGENERACY_EV: f64 = 0.05;
+/// A set that carries no single irrep on its own is tried together with the following sets
+/// within this window (eV): a degeneracy split by a geometry that is symmetric only within
+/// the tolerance (common practice, no source; sets that are pure alone are never merged).
+pub const NEAR_DEGENERACY_EV: f64 = 0.2;
 
 /// The label of one orbital.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
@@ -244,9 +246,9 @@ impl Context<'_> {
             let count = each.iter().filter(|&&b| b == i).count();
             if count % ir.dimension != 0 {
                 return SetResult::Mixed(format!(
-                    "{count} orbital(s) of the {}-dimensional irrep {} are degenerate within {} eV; \
-                     the degeneracy is broken",
-                    ir.dimension, ir.label, DEGENERACY_EV
+                    "only {count} orbital(s) of the {}-dimensional irrep {} lie within {} eV of \
+                     each other; the degeneracy is broken",
+                    ir.dimension, ir.label, NEAR_DEGENERACY_EV
                 ));
             }
         }
@@ -343,19 +345,27 @@ pub fn label_orbitals(
         let mut members = sets[s].clone();
         let mut result = ctx.analyse(&members, &chars);
         let mut used = 1;
-        // A degeneracy split a little by an imperfect geometry: try with the next set.
-        if matches!(result, SetResult::Mixed(_))
-            && let Some(next) = sets.get(s + 1)
-        {
-            let gap = energies[next[0]] - energies[*members.last().unwrap_or(&next[0])];
-            if gap.abs() < NEAR_DEGENERACY_EV {
-                let mut joined = members.clone();
+        // A degeneracy split a little by an imperfect geometry: try with the following
+        // sets while they stay within NEAR_DEGENERACY_EV of this one (at most 5 orbitals,
+        // the largest irrep dimension).
+        if matches!(result, SetResult::Mixed(_)) {
+            let start = energies[sets[s][0]];
+            let mut joined = members.clone();
+            let mut count = 1;
+            while let Some(next) = sets.get(s + count) {
+                if (energies[next[0]] - start).abs() >= NEAR_DEGENERACY_EV
+                    || joined.len() + next.len() > 5
+                {
+                    break;
+                }
                 joined.extend(next.iter().copied());
+                count += 1;
                 let r2 = ctx.analyse(&joined, &chars);
                 if !matches!(r2, SetResult::Mixed(_)) {
-                    members = joined;
+                    members = joined.clone();
                     result = r2;
-                    used = 2;
+                    used = count;
+                    break;
                 }
             }
         }

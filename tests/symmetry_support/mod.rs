@@ -225,3 +225,65 @@ pub fn rotated(m: &Molecule, axis: [f64; 3], angle: f64, shift: [f64; 3]) -> Mol
     }
     out
 }
+
+/// A small two-centre (Slater–Koster form) model Hamiltonian over an s, p basis: rotation
+/// covariant, so it commutes with every symmetry operation of an exactly symmetric geometry
+/// and only approximately with a distorted one (a stand-in for extended Hückel matrices).
+pub fn two_centre_matrix(
+    m: &Molecule,
+    basis: &[AtomicOrbital],
+    scale: f64,
+    diagonal: bool,
+) -> DMatrix<f64> {
+    let n = basis.len();
+    let dir = |k: AngularKind| -> Option<usize> {
+        match k {
+            AngularKind::Px => Some(0),
+            AngularKind::Py => Some(1),
+            AngularKind::Pz => Some(2),
+            _ => None,
+        }
+    };
+    DMatrix::from_fn(n, n, |a, b| {
+        let (fa, fb) = (&basis[a], &basis[b]);
+        if fa.atom == fb.atom {
+            if a != b || !diagonal {
+                return if a == b { 1.0 } else { 0.0 };
+            }
+            let z = m.atoms[fa.atom].element.atomic_number() as f64;
+            return -(5.0 + z) - if dir(fa.kind).is_some() { 0.0 } else { 6.0 };
+        }
+        let d = m.atoms[fb.atom].position - m.atoms[fa.atom].position;
+        let r = d.norm();
+        let l = d / r;
+        let w = (-r).exp() * scale;
+        match (dir(fa.kind), dir(fb.kind)) {
+            (None, None) => -1.4 * w,
+            (Some(i), None) => 1.8 * w * l[i],
+            (None, Some(j)) => -1.8 * w * l[j],
+            (Some(i), Some(j)) => {
+                let delta = if i == j { 1.0 } else { 0.0 };
+                w * (2.2 * l[i] * l[j] - 0.6 * (delta - l[i] * l[j]))
+            }
+        }
+    })
+}
+
+/// Solves H C = S C E by Löwdin orthogonalization; columns sorted by energy.
+pub fn solve(h: &DMatrix<f64>, s: &DMatrix<f64>) -> (DMatrix<f64>, Vec<f64>) {
+    let n = h.nrows();
+    let es = s.clone().symmetric_eigen();
+    assert!(
+        es.eigenvalues.iter().all(|v| *v > 1e-6),
+        "overlap not positive definite"
+    );
+    let x = &es.eigenvectors
+        * DMatrix::from_diagonal(&es.eigenvalues.map(|v| 1.0 / v.sqrt()))
+        * es.eigenvectors.transpose();
+    let eig = (&x * h * &x).symmetric_eigen();
+    let mut order: Vec<usize> = (0..n).collect();
+    order.sort_by(|&a, &b| eig.eigenvalues[a].total_cmp(&eig.eigenvalues[b]));
+    let full = &x * &eig.eigenvectors;
+    let c = DMatrix::from_fn(n, n, |r, k| full[(r, order[k])]);
+    (c, order.iter().map(|&k| eig.eigenvalues[k]).collect())
+}
