@@ -128,5 +128,7 @@ fn a_481_atom_icosahedral_cluster_is_detected_quickly() {
     let sym = detect(&moved, &SymmetrySettings::default()).unwrap();
     let elapsed = start.elapsed().as_secs_f64();
     assert_eq!(sym.group, PointGroup::Ih);
-    assert!(elapsed < 5.0, "{elapsed} s");
+    // Unoptimized (debug) builds are far slower; the bound is for release builds.
+    let limit = if cfg!(debug_assertions) { 300.0 } else { 5.0 };
+    assert!(elapsed < limit, "{elapsed} s");
 }

@@ -133,6 +133,8 @@ fn lcg(seed: &mut u64) -> f64 {
 
 #[test]
 fn five_hundred_atoms_answer_quickly() {
+    // Unoptimized (debug) builds are far slower; the bounds are for release builds.
+    let slack = if cfg!(debug_assertions) { 60.0 } else { 1.0 };
     // Random cloud: C1.
     let mut seed = 7u64;
     let atoms: Vec<Atom> = (0..500)
@@ -154,7 +156,7 @@ fn five_hundred_atoms_answer_quickly() {
             .to_string(),
         "C1"
     );
-    assert!(start.elapsed().as_secs_f64() < 5.0, "bounded");
+    assert!(start.elapsed().as_secs_f64() < slack * 5.0, "bounded");
     // A 10×10×5 simple-cubic block of one element: D4h (square 10×10 base, height 5).
     let atoms: Vec<Atom> = (0..500)
         .map(|k| {
@@ -177,7 +179,7 @@ fn five_hundred_atoms_answer_quickly() {
             .to_string(),
         "D4h"
     );
-    assert!(start.elapsed().as_secs_f64() < 10.0, "bounded");
+    assert!(start.elapsed().as_secs_f64() < slack * 10.0, "bounded");
     // 501 atoms: typed error.
     let atoms: Vec<Atom> = (0..501)
         .map(|k| Atom::new(el("H"), [k as f64, 0.0, 0.0]))

@@ -173,16 +173,17 @@ pub(super) fn classify_elements(
     let n_max = e.axes.iter().map(|(_, n)| *n).max().unwrap_or(2);
     let twofold: Vec<Vector3<f64>> = e.axes.iter().map(|(v, _)| *v).collect();
     let s4 = |v: &Vector3<f64>| p.is_symmetry(&improper(v, PI / 2.0));
-    let mut z = if n_max >= 3 {
-        high[0].0
+    let first_axis = twofold.first().copied().unwrap_or_else(Vector3::z);
+    let z = if n_max >= 3 {
+        high.first().map_or(first_axis, |a| a.0)
     } else if twofold.len() >= 3 {
         twofold
             .iter()
             .find(|v| s4(v))
             .copied()
-            .unwrap_or(twofold[0])
+            .unwrap_or(first_axis)
     } else {
-        twofold[0]
+        first_axis
     };
     let n = n_max;
     let perp_c2: Vec<Vector3<f64>> = e
@@ -252,10 +253,6 @@ pub(super) fn classify_elements(
             .collect();
         let x = best_axis(p, &candidates).unwrap_or_else(|| any_perpendicular(&z));
         return (group, orthonormal_frame(x, z));
-    }
-    if n == 2 && twofold.len() > 1 {
-        // Should not happen (two C2 axes imply a third); keep the first as principal.
-        z = twofold[0];
     }
     if sigma_h {
         return (
