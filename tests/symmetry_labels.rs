@@ -362,3 +362,59 @@ fn slightly_distorted_geometries_are_still_labelled() {
         assert_eq!(distorted, ideal, "{group}");
     }
 }
+
+/// With no atom on any in-plane axis (rectangular C4H4, D2h), the frame is still the same
+/// in every orientation: the b2u/b3u labels of the σ framework do not swap.
+#[test]
+fn d2h_frame_does_not_depend_on_orientation() {
+    let base = mol(
+        "rectangular cyclobutadiene",
+        &[
+            ("C", [0.79, 0.67, 0.0]),
+            ("C", [-0.79, 0.67, 0.0]),
+            ("C", [0.79, -0.67, 0.0]),
+            ("C", [-0.79, -0.67, 0.0]),
+            ("H", [1.55, 1.42, 0.0]),
+            ("H", [-1.55, 1.42, 0.0]),
+            ("H", [1.55, -1.42, 0.0]),
+            ("H", [-1.55, -1.42, 0.0]),
+        ],
+    );
+    let mut reference: Option<Vec<String>> = None;
+    for (k, (axis, angle)) in [
+        ([0.0, 0.0, 1.0], 0.0),
+        ([0.0, 0.0, 1.0], 1.5707963267948966),
+        ([1.0, 2.0, 3.0], 2.0),
+        ([-3.0, 1.0, 0.5], 4.0),
+    ]
+    .iter()
+    .enumerate()
+    {
+        let m = rotated(&base, *axis, *angle, [0.5, 0.5, 0.5]);
+        let sym = detect(&m, &SymmetrySettings::default()).unwrap();
+        assert_eq!(sym.group.to_string(), "D2h");
+        let basis = valence_basis(&m);
+        // One H 1s orbital per SALC irrep, in basis order: their labels fix the frame.
+        let labels: Vec<String> = salcs(
+            &sym,
+            &basis[basis.len() - 4..]
+                .iter()
+                .map(|a| *a)
+                .collect::<Vec<_>>(),
+        )
+        .unwrap()
+        .iter()
+        .map(|s| s.label.to_string())
+        .collect();
+        match &reference {
+            None => reference = Some(labels),
+            Some(r) => assert_eq!(&labels, r, "orientation {k}"),
+        }
+    }
+    // z runs along the longer (C–C 1.58 Å) direction, x is perpendicular to the plane.
+    let sym = detect(&base, &SymmetrySettings::default()).unwrap();
+    let z: Vector3<f64> = sym.frame.row(2).transpose();
+    let x: Vector3<f64> = sym.frame.row(0).transpose();
+    assert!(z.cross(&Vector3::x()).norm() < 1e-6, "{z}");
+    assert!(x.cross(&Vector3::z()).norm() < 1e-6, "{x}");
+}

@@ -47,19 +47,33 @@ pub(super) fn x_from_atoms(p: &Prepared, z: &Vector3<f64>) -> Vector3<f64> {
 
 /// Picks the axis through most atoms (then most mass; then first).
 fn best_axis(p: &Prepared, list: &[Vector3<f64>]) -> Option<Vector3<f64>> {
-    let mut best: Option<(usize, f64, Vector3<f64>)> = None;
+    // Ties (no atoms on any candidate) are broken by the mass-weighted extent along the
+    // axis, so that the choice does not depend on the orientation of the input.
+    let extent = |v: &Vector3<f64>| -> f64 {
+        p.pos
+            .iter()
+            .zip(&p.mass)
+            .map(|(x, m)| m * x.dot(v).powi(2))
+            .sum()
+    };
+    let mut best: Option<(usize, f64, f64, Vector3<f64>)> = None;
     for v in list {
         let count = p.atoms_on_axis(v);
         let mass = p.mass_on_axis(v);
+        let ext = extent(v);
         let better = match best {
             None => true,
-            Some((c, m, _)) => count > c || (count == c && mass > m + 1e-9),
+            Some((c, m, e, _)) => {
+                count > c
+                    || (count == c && mass > m + 1e-6)
+                    || (count == c && (mass - m).abs() <= 1e-6 && ext > e * (1.0 + 1e-6) + 1e-9)
+            }
         };
         if better {
-            best = Some((count, mass, *v));
+            best = Some((count, mass, ext, *v));
         }
     }
-    best.map(|b| b.2)
+    best.map(|b| b.3)
 }
 
 /// Standard frame of a cubic or icosahedral group with z and x along two of its
