@@ -383,7 +383,7 @@ fn d2h_frame_does_not_depend_on_orientation() {
     let mut reference: Option<Vec<String>> = None;
     for (k, (axis, angle)) in [
         ([0.0, 0.0, 1.0], 0.0),
-        ([0.0, 0.0, 1.0], 1.5707963267948966),
+        ([0.0, 0.0, 1.0], std::f64::consts::FRAC_PI_2),
         ([1.0, 2.0, 3.0], 2.0),
         ([-3.0, 1.0, 0.5], 4.0),
     ]
@@ -395,17 +395,11 @@ fn d2h_frame_does_not_depend_on_orientation() {
         assert_eq!(sym.group.to_string(), "D2h");
         let basis = valence_basis(&m);
         // One H 1s orbital per SALC irrep, in basis order: their labels fix the frame.
-        let labels: Vec<String> = salcs(
-            &sym,
-            &basis[basis.len() - 4..]
-                .iter()
-                .map(|a| *a)
-                .collect::<Vec<_>>(),
-        )
-        .unwrap()
-        .iter()
-        .map(|s| s.label.to_string())
-        .collect();
+        let labels: Vec<String> = salcs(&sym, &basis[basis.len() - 4..])
+            .unwrap()
+            .iter()
+            .map(|s| s.label.to_string())
+            .collect();
         match &reference {
             None => reference = Some(labels),
             Some(r) => assert_eq!(&labels, r, "orientation {k}"),
