@@ -9,3 +9,4 @@ pub mod eht;
 pub mod hybrid;
 pub mod project;
 pub mod report;
+pub mod symmetry;
