@@ -8,6 +8,7 @@ use thiserror::Error;
 
 use crate::chem::molecule::{Molecule, MoleculeError};
 use crate::eht::{self, EhtResult, EhtSettings};
+use crate::symmetry::{self, Symmetry, SymmetrySettings, SymmetrySummary};
 
 /// Method options of the document. Every field has a default so that older project files
 /// load; new options are added as new fields with `#[serde(default)]`.
@@ -16,6 +17,8 @@ use crate::eht::{self, EhtResult, EhtSettings};
 pub struct Settings {
     /// Lone-pair mixing switch (DESIGN §4.6): on = full solution.
     pub lone_pair_mixing: bool,
+    /// Point-group tolerance, axis and numbering conventions.
+    pub symmetry: SymmetrySettings,
     /// Extended Hückel options (K, weighting, parameter overrides).
     pub eht: EhtSettings,
 }
@@ -24,6 +27,7 @@ impl Default for Settings {
     fn default() -> Self {
         Settings {
             lone_pair_mixing: true,
+            symmetry: SymmetrySettings::default(),
             eht: EhtSettings::default(),
         }
     }
@@ -107,6 +111,10 @@ pub struct Analysis {
     /// Σ valence electrons − charge.
     pub electrons: usize,
     pub formula: String,
+    /// Point group, operations and frame, unless that stage failed.
+    pub symmetry: Option<Symmetry>,
+    /// Irreps of the central atom's orbitals and of the ligand SALCs.
+    pub symmetry_summary: Option<SymmetrySummary>,
     /// The extended Hückel solution, unless that stage failed.
     pub eht: Option<EhtResult>,
     /// The canonical MOs in ascending energy (empty if the MO stage failed).
@@ -124,6 +132,19 @@ impl Analysis {
         molecule.validate()?;
         let electrons = usize::try_from(molecule.electron_count()).unwrap_or(0);
         let mut errors = Vec::new();
+        let symmetry = match symmetry::detect(molecule, &settings.symmetry) {
+            Ok(found) => Some(found),
+            Err(error) => {
+                errors.push(StageError {
+                    stage: Stage::Symmetry,
+                    message: error.to_string(),
+                });
+                None
+            }
+        };
+        let symmetry_summary = symmetry
+            .as_ref()
+            .map(|found| symmetry::summarize(found, molecule));
         let eht = match eht::run(molecule, &settings.eht) {
             Ok(result) => Some(result),
             Err(error) => {
@@ -134,12 +155,29 @@ impl Analysis {
                 None
             }
         };
-        let orbitals = eht.as_ref().map(orbital_summaries).unwrap_or_default();
+        let mut orbitals = eht.as_ref().map(orbital_summaries).unwrap_or_default();
+        if let (Some(found), Some(solution)) = (&symmetry, &eht) {
+            let labels = symmetry::label_orbitals(
+                found,
+                molecule,
+                &solution.basis.orbitals,
+                &solution.coefficients,
+                &solution.energies,
+                &solution.overlap,
+                settings.symmetry.numbering,
+            );
+            for (orbital, label) in orbitals.iter_mut().zip(labels) {
+                orbital.irrep = label.irrep.map(|irrep| irrep.to_string());
+                orbital.label = Some(label.text);
+            }
+        }
         Ok(Analysis {
             molecule: molecule.clone(),
             settings: settings.clone(),
             electrons,
             formula: molecule.formula(),
+            symmetry,
+            symmetry_summary,
             eht,
             orbitals,
             localized: Vec::new(),

@@ -35,6 +35,9 @@ struct MoleculeEntry {
 #[derive(Serialize)]
 struct JsonReport<'a> {
     molecule: MoleculeEntry,
+    /// Schoenflies symbol ("C3v", "C∞v"); null if detection failed.
+    point_group: Option<String>,
+    symmetry: Option<&'a crate::symmetry::SymmetrySummary>,
     electrons: usize,
     orbitals: &'a [OrbitalSummary],
     /// Mulliken charge per atom (null when the MO stage failed).
@@ -81,6 +84,11 @@ fn molecule_entry(analysis: &Analysis) -> MoleculeEntry {
 pub fn to_json(analysis: &Analysis) -> String {
     let report = JsonReport {
         molecule: molecule_entry(analysis),
+        point_group: analysis
+            .symmetry
+            .as_ref()
+            .map(|found| found.group.to_string()),
+        symmetry: analysis.symmetry_summary.as_ref(),
         electrons: analysis.electrons,
         orbitals: &analysis.orbitals,
         charges: analysis.eht.as_ref().map(|eht| eht.charges()),
@@ -126,6 +134,9 @@ pub fn to_text(analysis: &Analysis) -> String {
             length
         ));
     }
+    if let Some(summary) = &analysis.symmetry_summary {
+        text.push_str(&symmetry_text(analysis, summary));
+    }
     if let Some(eht) = &analysis.eht {
         text.push_str(&orbital_table(analysis, eht));
     }
@@ -170,6 +181,28 @@ fn orbital_table(analysis: &Analysis, eht: &crate::eht::EhtResult) -> String {
     }
     if eht.open_shell {
         text.push_str("  (open shell: a partly filled degenerate set shares its electrons)\n");
+    }
+    text
+}
+
+fn symmetry_text(analysis: &Analysis, summary: &crate::symmetry::SymmetrySummary) -> String {
+    let mut text = format!(
+        "\nPoint group {} (order {}, tolerance {} Å)\n",
+        summary.point_group, summary.order, summary.tolerance
+    );
+    if let Some(centre) = summary.central_atom {
+        let element = analysis.molecule.atoms[centre].element;
+        for (shell, irreps) in &summary.central_orbitals {
+            text.push_str(&format!(
+                "  central atom {element}{centre} {shell}: {irreps}\n"
+            ));
+        }
+    }
+    if let Some(ligands) = &summary.ligand_sigma {
+        text.push_str(&format!("  ligand σ SALCs: {ligands}\n"));
+    }
+    for note in &summary.notes {
+        text.push_str(&format!("  note: {note}\n"));
     }
     text
 }

@@ -195,20 +195,14 @@ fn draw_level(
             let bar_end = if ladder == 0 { left } else { right };
             painter.line_segment([bar_end, anchor], Stroke::new(0.7, faint));
         }
-        let mut text = level.label.clone();
-        if show_energies {
-            text = if ladder == 0 {
-                format!("{}  {text}", format_energy(level.energy_ev, 2))
-            } else {
-                format!("{text}  {}", format_energy(level.energy_ev, 2))
-            };
-        }
-        let align = if ladder == 0 {
-            Align2::RIGHT_CENTER
+        let galley = painter.layout_job(label_job(level, ladder, show_energies, ink, faint));
+        let size = galley.size();
+        let top_left = if ladder == 0 {
+            anchor - Vec2::new(size.x, size.y / 2.0)
         } else {
-            Align2::LEFT_CENTER
+            anchor - Vec2::new(0.0, size.y / 2.0)
         };
-        painter.text(anchor, align, text, FontId::proportional(12.0), ink);
+        painter.galley(top_left, galley, ink);
     }
     if level.is_homo || level.is_lumo {
         let inner = if ladder == 0 {
@@ -229,6 +223,45 @@ fn draw_level(
             faint,
         );
     }
+}
+
+/// The label as rich text: Mulliken subscripts and superscripts set small and shifted
+/// (the same runs the SVG writer uses), the energy in a fainter colour.
+fn label_job(
+    level: &Level,
+    ladder: usize,
+    show_energies: bool,
+    ink: Color32,
+    faint: Color32,
+) -> egui::text::LayoutJob {
+    use diptych::diagram::style::{Script, label_runs};
+    use egui::text::{LayoutJob, TextFormat};
+    let normal = TextFormat::simple(FontId::proportional(12.0), ink);
+    let small = |valign| TextFormat {
+        font_id: FontId::proportional(9.0),
+        color: ink,
+        valign,
+        ..Default::default()
+    };
+    let energy = TextFormat::simple(FontId::proportional(11.0), faint);
+    let mut job = LayoutJob::default();
+    if show_energies && ladder == 0 {
+        job.append(&format_energy(level.energy_ev, 2), 0.0, energy.clone());
+        job.append("  ", 0.0, normal.clone());
+    }
+    for (text, script) in label_runs(&level.label) {
+        let format = match script {
+            Script::Normal => normal.clone(),
+            Script::Sub => small(egui::Align::BOTTOM),
+            Script::Super => small(egui::Align::TOP),
+        };
+        job.append(&text, 0.0, format);
+    }
+    if show_energies && ladder == 1 {
+        job.append("  ", 0.0, normal.clone());
+        job.append(&format_energy(level.energy_ev, 2), 0.0, energy);
+    }
+    job
 }
 
 /// Up/down arrows for the electrons of a level (a half-filled level shows one arrow).
