@@ -194,11 +194,9 @@ fn export(file: &Path, output: &Path, charge: Option<i32>, request: &ExportReque
         Err(code) => return code,
     };
     let mut titles = opened.project.titles.clone();
-    if let Some(names) = &request.names {
-        if let [left, right] = names.as_slice() {
-            titles.delocalized = left.clone();
-            titles.localized = right.clone();
-        }
+    if let Some([left, right]) = request.names.as_deref() {
+        titles.delocalized = left.clone();
+        titles.localized = right.clone();
     }
     let options = diptych::diagram::DiagramOptions {
         titles,
