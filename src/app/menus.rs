@@ -118,7 +118,7 @@ pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
                 state.dirty = true;
             }
             if ui.button("Reset view").clicked() {
-                state.camera = Default::default();
+                state.camera = super::structure_view::Camera::facing(&state.project.molecule);
                 ui.close();
             }
         });

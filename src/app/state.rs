@@ -88,6 +88,7 @@ impl AppState {
             status,
             error_dialog: None,
         };
+        state.camera = Camera::facing(&state.project.molecule);
         state.document_changed();
         state.dirty = false;
         state
@@ -190,7 +191,7 @@ impl AppState {
                 self.path = Some(path);
                 self.selected_atom = None;
                 self.selected_level = None;
-                self.camera = Camera::default();
+                self.camera = Camera::facing(&self.project.molecule);
                 self.document_changed();
                 self.dirty = false;
             }

@@ -28,6 +28,32 @@ impl Default for Camera {
     }
 }
 
+impl Camera {
+    /// A view looking along the molecule's axis of largest moment of inertia (so that a
+    /// planar molecule shows its face), tilted a little to show depth.
+    pub fn facing(molecule: &Molecule) -> Camera {
+        let centre = geometric_centre(molecule);
+        let mut inertia = nalgebra::Matrix3::<f64>::zeros();
+        for atom in &molecule.atoms {
+            let r = atom.position - centre;
+            let m = atom.element.mass();
+            inertia += (nalgebra::Matrix3::identity() * r.norm_squared() - r * r.transpose()) * m;
+        }
+        let eigen = inertia.symmetric_eigen();
+        let mut order = [0usize, 1, 2];
+        order.sort_by(|&a, &b| eigen.eigenvalues[a].total_cmp(&eigen.eigenvalues[b]));
+        let x = eigen.eigenvectors.column(order[0]).into_owned();
+        let y = eigen.eigenvectors.column(order[1]).into_owned();
+        let z = x.cross(&y);
+        let rows = nalgebra::Matrix3::from_rows(&[x.transpose(), y.transpose(), z.transpose()]);
+        let base = Rotation3::from_matrix_unchecked(rows);
+        Camera {
+            rotation: Rotation3::from_euler_angles(-0.55, 0.25, 0.0) * base,
+            ..Camera::default()
+        }
+    }
+}
+
 /// What the user did in the view this frame.
 #[derive(Default)]
 pub struct ViewEvents {
