@@ -11,6 +11,9 @@ mod structure_view;
 mod theme;
 mod worker;
 
+#[cfg(test)]
+mod tests;
+
 use std::path::PathBuf;
 
 use diptych::project::Opened;
@@ -116,16 +119,14 @@ impl DiptychApp {
             ui.heading("Diagram");
             ui.add_space(8.0);
             let titles = &mut self.state.project.titles;
-            let left = ui.add(
-                egui::TextEdit::singleline(&mut titles.delocalized)
-                    .desired_width(170.0)
-                    .hint_text("left ladder title"),
-            );
-            let right = ui.add(
-                egui::TextEdit::singleline(&mut titles.localized)
-                    .desired_width(170.0)
-                    .hint_text("right ladder title"),
-            );
+            let left_label = ui.label("Left title");
+            let left = ui
+                .add(egui::TextEdit::singleline(&mut titles.delocalized).desired_width(160.0))
+                .labelled_by(left_label.id);
+            let right_label = ui.label("Right title");
+            let right = ui
+                .add(egui::TextEdit::singleline(&mut titles.localized).desired_width(160.0))
+                .labelled_by(right_label.id);
             if left.changed() || right.changed() {
                 self.state.dirty = true;
                 self.state.rebuild_diagram();
