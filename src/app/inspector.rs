@@ -9,7 +9,7 @@ use super::diagram_view::{LevelRef, format_energy};
 use super::molecule_panel;
 use super::state::AppState;
 
-pub fn show(ui: &mut egui::Ui, state: &AppState) {
+pub fn show(ui: &mut egui::Ui, state: &mut AppState) {
     molecule_panel::summary(ui, state);
     ui.separator();
     if let (Some(level), Some(analysis)) = (state.selected_level, &state.analysis) {

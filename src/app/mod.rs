@@ -2,6 +2,7 @@
 //! Inspector, status bar. It renders results of `Analysis::run` and computes no chemistry.
 
 mod diagram_view;
+mod history;
 mod inspector;
 mod menus;
 mod molecule_panel;
@@ -49,6 +50,8 @@ impl DiptychApp {
     fn frame_ui(&mut self, ui: &mut egui::Ui) {
         self.state.receive_results();
         self.dialogs.apply(&mut self.state);
+        // Every edit of this frame is compared against this copy (undo, recompute).
+        let before = self.state.project.clone();
         menus::handle_shortcuts(ui, &mut self.state, &self.dialogs);
         let visuals = if self.state.project.view.dark_theme {
             egui::Visuals::dark()
@@ -84,10 +87,13 @@ impl DiptychApp {
             .resizable(true)
             .show(ui, |ui| {
                 ui.heading("Inspector");
-                egui::ScrollArea::vertical().show(ui, |ui| inspector::show(ui, &self.state));
+                egui::ScrollArea::vertical().show(ui, |ui| inspector::show(ui, &mut self.state));
             });
         egui::CentralPanel::default_margins().show(ui, |ui| self.diagram_panel(ui));
         self.error_dialog(ui);
+
+        let now = ui.input(|input| input.time);
+        self.state.after_frame(before, now);
 
         let title = self.state.title();
         if title != self.last_title {
@@ -120,28 +126,18 @@ impl DiptychApp {
             ui.add_space(8.0);
             let titles = &mut self.state.project.titles;
             let left_label = ui.label("Left title");
-            let left = ui
-                .add(egui::TextEdit::singleline(&mut titles.delocalized).desired_width(160.0))
+            ui.add(egui::TextEdit::singleline(&mut titles.delocalized).desired_width(160.0))
                 .labelled_by(left_label.id);
             let right_label = ui.label("Right title");
-            let right = ui
-                .add(egui::TextEdit::singleline(&mut titles.localized).desired_width(160.0))
+            ui.add(egui::TextEdit::singleline(&mut titles.localized).desired_width(160.0))
                 .labelled_by(right_label.id);
-            if left.changed() || right.changed() {
-                self.state.dirty = true;
-                self.state.rebuild_diagram();
-            }
         });
         ui.horizontal_wrapped(|ui| {
-            let energies = ui.checkbox(&mut self.state.project.view.show_energies, "Energies");
-            let threshold = ui.add(
+            ui.checkbox(&mut self.state.project.view.show_energies, "Energies");
+            ui.add(
                 egui::Slider::new(&mut self.state.project.view.link_threshold, 0.0..=0.5)
                     .text("hide lines below this weight"),
             );
-            if energies.changed() || threshold.changed() {
-                self.state.dirty = true;
-                self.state.rebuild_diagram();
-            }
         });
         let show_energies = self.state.project.view.show_energies;
         let Some(diagram) = &self.state.diagram else {

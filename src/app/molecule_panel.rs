@@ -6,8 +6,8 @@ use eframe::egui;
 
 use super::state::AppState;
 
-/// Name, formula, charge, electron count.
-pub fn summary(ui: &mut egui::Ui, state: &AppState) {
+/// Name, formula, charge (editable), electron count.
+pub fn summary(ui: &mut egui::Ui, state: &mut AppState) {
     ui.heading("Molecule");
     match &state.analysis {
         Some(analysis) => {
@@ -18,8 +18,9 @@ pub fn summary(ui: &mut egui::Ui, state: &AppState) {
                 ui.label("Formula");
                 ui.label(&analysis.formula);
                 ui.end_row();
-                ui.label("Charge");
-                ui.label(analysis.molecule.charge.to_string());
+                let label = ui.label("Charge");
+                ui.add(egui::DragValue::new(&mut state.project.molecule.charge).range(-8..=8))
+                    .labelled_by(label.id);
                 ui.end_row();
                 ui.label("Valence electrons");
                 ui.label(analysis.electrons.to_string());

@@ -12,6 +12,7 @@ use diptych::project::{Opened, Project, open_path};
 use eframe::egui;
 
 use super::diagram_view::LevelRef;
+use super::history::{Change, History, classify};
 use super::structure_view::Camera;
 use super::worker::AnalysisWorker;
 
@@ -38,6 +39,9 @@ pub struct AppState {
     /// The diagram of `analysis` with the current titles and threshold.
     pub diagram: Option<Diagram>,
     pub camera: Camera,
+    pub history: History,
+    /// Set by undo/redo: this frame's change is a history step, not a new edit.
+    navigated_history: bool,
     /// One-line message for the status bar.
     pub status: String,
     /// An error to show in a dialog until dismissed.
@@ -85,6 +89,8 @@ impl AppState {
             hovered_level: None,
             diagram: None,
             camera: Camera::default(),
+            history: History::default(),
+            navigated_history: false,
             status,
             error_dialog: None,
         };
@@ -165,6 +171,53 @@ impl AppState {
         }
     }
 
+    /// Call once per frame with the document as it was before the frame's UI ran: records
+    /// an undo step and schedules the analysis or the layout as the change requires.
+    pub fn after_frame(&mut self, before: Project, now: f64) {
+        if std::mem::take(&mut self.navigated_history) {
+            return;
+        }
+        let change = classify(&before, &self.project);
+        if change == Change::None {
+            return;
+        }
+        self.history.record(before, &self.project, now);
+        self.apply_change(change);
+    }
+
+    fn apply_change(&mut self, change: Change) {
+        match change {
+            Change::None => {}
+            Change::Presentation => {
+                self.dirty = true;
+                self.rebuild_diagram();
+            }
+            Change::Document => self.document_changed(),
+        }
+    }
+
+    /// Steps back one edit.
+    pub fn undo(&mut self) {
+        if let Some(previous) = self.history.undo(&self.project) {
+            let change = classify(&previous, &self.project);
+            self.project = previous;
+            self.apply_change(change);
+            self.navigated_history = true;
+            self.status = "Undone".into();
+        }
+    }
+
+    /// Steps forward one undone edit.
+    pub fn redo(&mut self) {
+        if let Some(next) = self.history.redo(&self.project) {
+            let change = classify(&next, &self.project);
+            self.project = next;
+            self.apply_change(change);
+            self.navigated_history = true;
+            self.status = "Redone".into();
+        }
+    }
+
     /// Lays the diagram out again (after a new analysis, or new titles or threshold).
     pub fn rebuild_diagram(&mut self) {
         let options = DiagramOptions {
@@ -189,6 +242,7 @@ impl AppState {
                     opened.notices.join("; ")
                 };
                 self.path = Some(path);
+                self.history.clear();
                 self.selected_atom = None;
                 self.selected_level = None;
                 self.camera = Camera::facing(&self.project.molecule);

@@ -148,3 +148,40 @@ fn clicking_an_atom_selects_it() {
     harness.get_by_label("Atom 0: nitrogen (N)");
     harness.get_by_label_contains("Angles at this atom");
 }
+
+#[test]
+fn undo_and_redo_walk_through_edits() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    let original = harness.state().state.project.clone();
+    harness.get_by_label("Energies").click();
+    harness.run_steps(2);
+    harness.get_by_label("Charge").click();
+    harness.run_steps(1);
+    harness.get_by_label("Charge").type_text("1");
+    harness.key_press(egui::Key::Enter);
+    harness.run_steps(1);
+    // Click elsewhere so the field lets go of the keyboard.
+    harness.get_by_label("Inspector").click();
+    harness.run_steps(2);
+    wait_for_analysis(&mut harness);
+    assert_eq!(
+        harness.state().state.analysis.as_ref().unwrap().electrons,
+        7,
+        "charge change re-analysed"
+    );
+    harness.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    harness.run_steps(1);
+    wait_for_analysis(&mut harness);
+    assert_eq!(harness.state().state.project.molecule.charge, 0);
+    assert_eq!(
+        harness.state().state.analysis.as_ref().unwrap().electrons,
+        8
+    );
+    harness.state_mut().state.undo();
+    harness.run_steps(2);
+    assert_eq!(harness.state().state.project, original);
+    harness.state_mut().state.redo();
+    harness.run_steps(2);
+    assert!(!harness.state().state.project.view.show_energies);
+}
