@@ -140,6 +140,12 @@ pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
                 ui.close();
             }
         });
+        ui.menu_button("Settings", |ui| {
+            if ui.button("Method options…").clicked() {
+                state.settings_open = true;
+                ui.close();
+            }
+        });
         ui.menu_button("View", |ui| {
             ui.checkbox(&mut state.camera.show_labels, "Atom labels");
             if ui

@@ -7,6 +7,7 @@ mod inspector;
 mod menus;
 mod molecule_panel;
 mod screenshot;
+mod settings_window;
 mod state;
 mod structure_view;
 mod theme;
@@ -90,6 +91,11 @@ impl DiptychApp {
                 egui::ScrollArea::vertical().show(ui, |ui| inspector::show(ui, &mut self.state));
             });
         egui::CentralPanel::default_margins().show(ui, |ui| self.diagram_panel(ui));
+        settings_window::show(
+            ui.ctx(),
+            &mut self.state.settings_open,
+            &mut self.state.project.settings,
+        );
         self.error_dialog(ui);
 
         let now = ui.input(|input| input.time);

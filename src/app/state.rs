@@ -40,6 +40,8 @@ pub struct AppState {
     pub diagram: Option<Diagram>,
     pub camera: Camera,
     pub history: History,
+    /// Whether the Settings window is shown.
+    pub settings_open: bool,
     /// Set by undo/redo: this frame's change is a history step, not a new edit.
     navigated_history: bool,
     /// One-line message for the status bar.
@@ -90,6 +92,7 @@ impl AppState {
             diagram: None,
             camera: Camera::default(),
             history: History::default(),
+            settings_open: false,
             navigated_history: false,
             status,
             error_dialog: None,

@@ -185,3 +185,26 @@ fn undo_and_redo_walk_through_edits() {
     harness.run_steps(2);
     assert!(!harness.state().state.project.view.show_energies);
 }
+
+#[test]
+fn valence_only_numbering_relabels_the_diagram() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    harness.state_mut().state.settings_open = true;
+    harness.run_steps(2);
+    harness.get_by_label("valence only (1a1, 2a1 …)").click();
+    harness.run_steps(1);
+    wait_for_analysis(&mut harness);
+    let diagram = harness.state().state.diagram.as_ref().unwrap();
+    let labels: Vec<&str> = diagram.ladders[0]
+        .levels
+        .iter()
+        .map(|l| l.label.as_str())
+        .collect();
+    // Valence-only numbering: ammonia's lone pair is 2a1 (core-inclusive 3a1).
+    assert!(
+        labels.contains(&"2a1") && labels.contains(&"1a1"),
+        "{labels:?}"
+    );
+    assert!(harness.state().state.history.can_undo());
+}
