@@ -4,7 +4,9 @@
 
 pub mod analysis;
 pub mod chem;
+pub mod diagram;
 pub mod eht;
 pub mod hybrid;
 pub mod project;
 pub mod report;
+pub mod symmetry;
