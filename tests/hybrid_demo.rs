@@ -465,3 +465,41 @@ fn settings_round_trip_through_json_and_ron() {
     let text = serde_json::to_string(&analysis).unwrap();
     assert!(text.contains("\"lone_pair\"") && text.contains("\"pi_star\""));
 }
+
+#[test]
+fn kind_names_match_their_serde_names() {
+    for kind in [
+        HybridKind::Bond,
+        HybridKind::Pi,
+        HybridKind::LonePair,
+        HybridKind::Vacant,
+    ] {
+        assert_eq!(
+            serde_json::to_string(&kind).unwrap(),
+            format!("\"{}\"", kind.as_str())
+        );
+    }
+    for kind in [
+        LocalizedKind::Bond,
+        LocalizedKind::Antibond,
+        LocalizedKind::LonePair,
+        LocalizedKind::Pi,
+        LocalizedKind::PiStar,
+        LocalizedKind::Vacant,
+    ] {
+        assert_eq!(
+            serde_json::to_string(&kind).unwrap(),
+            format!("\"{}\"", kind.as_str())
+        );
+    }
+    for model in [
+        HybridModel::Geometric,
+        HybridModel::MaxOverlap,
+        HybridModel::Localized,
+    ] {
+        assert_eq!(
+            serde_json::to_string(&model).unwrap(),
+            format!("\"{}\"", model.as_str())
+        );
+    }
+}

@@ -28,6 +28,20 @@ pub enum LocalizedKind {
     Vacant,
 }
 
+impl LocalizedKind {
+    /// The JSON name: "bond", "antibond", "lone_pair", "pi", "pi_star" or "vacant".
+    pub fn as_str(self) -> &'static str {
+        match self {
+            LocalizedKind::Bond => "bond",
+            LocalizedKind::Antibond => "antibond",
+            LocalizedKind::LonePair => "lone_pair",
+            LocalizedKind::Pi => "pi",
+            LocalizedKind::PiStar => "pi_star",
+            LocalizedKind::Vacant => "vacant",
+        }
+    }
+}
+
 /// One level of the localized ladder.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct LocalizedOrbital {

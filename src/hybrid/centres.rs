@@ -88,13 +88,64 @@ fn formal_charges(
             ));
         }
     }
-    let assigned: i32 = charges.iter().sum();
-    let mut remaining = molecule.charge - assigned;
     let free = |atom: usize| {
         !settings.formal_charges.contains_key(&atom)
             && !settings.lone_pair_overrides.contains_key(&atom)
             && molecule.atoms[atom].element.atomic_number() > 2
     };
+    // Charge-separated pairs first: two bonded atoms whose counts are both impossible
+    // (odd or negative) take +1 and −1 when that leaves both with an even, non-negative
+    // count that fits four orbitals (S+–O− in DMSO, P+–O− in phosphoric acid, N+–B− in
+    // ammonia borane); if both signs fit, the more electronegative atom takes −1.
+    let bad = |n: i32| n < 0 || n.rem_euclid(2) == 1;
+    for bond in &molecule.bonds {
+        let (a, b) = (bond.a, bond.b);
+        if a >= charges.len() || b >= charges.len() || a == b {
+            continue;
+        }
+        if !free(a) || !free(b) || charges[a] != 0 || charges[b] != 0 {
+            continue;
+        }
+        let (na, nb) = (nonbonding(molecule, a, 0), nonbonding(molecule, b, 0));
+        if !bad(na) || !bad(nb) {
+            continue;
+        }
+        let fits = |atom: usize, n: i32| {
+            let orbitals = molecule
+                .bonds
+                .iter()
+                .filter(|bond| bond.other(atom).is_some())
+                .map(|bond| i32::from(bond.order))
+                .sum::<i32>()
+                + n / 2;
+            n >= 0 && n % 2 == 0 && orbitals <= 4
+        };
+        let plus_a = fits(a, na - 1) && fits(b, nb + 1);
+        let minus_a = fits(a, na + 1) && fits(b, nb - 1);
+        let a_takes = match (plus_a, minus_a) {
+            (true, true) => {
+                if electronegativity(molecule, a) > electronegativity(molecule, b) {
+                    -1
+                } else {
+                    1
+                }
+            }
+            (true, false) => 1,
+            (false, true) => -1,
+            (false, false) => continue,
+        };
+        charges[a] = a_takes;
+        charges[b] = -a_takes;
+        notes.push(format!(
+            "formal charges {:+} on atom {a} ({}) and {:+} on atom {b} ({}) complete the Lewis structure",
+            a_takes,
+            molecule.atoms[a].element.symbol(),
+            -a_takes,
+            molecule.atoms[b].element.symbol()
+        ));
+    }
+    let assigned: i32 = charges.iter().sum();
+    let mut remaining = molecule.charge - assigned;
     // First pass: counts that are negative; second: odd counts.
     for pass in 0..2 {
         #[allow(clippy::needless_range_loop)]
@@ -129,6 +180,25 @@ fn formal_charges(
         ));
     }
     charges
+}
+
+/// Pauling electronegativity of the atom's element (common values, from memory); 2.0 for
+/// elements not listed. Used only to break ties between charge-separated structures.
+fn electronegativity(molecule: &Molecule, atom: usize) -> f64 {
+    match molecule.atoms[atom].element.symbol() {
+        "H" => 2.20,
+        "B" => 2.04,
+        "C" => 2.55,
+        "N" => 3.04,
+        "O" => 3.44,
+        "F" => 3.98,
+        "Si" => 1.90,
+        "P" => 2.19,
+        "S" => 2.58,
+        "Cl" => 3.16,
+        "Br" => 2.96,
+        _ => 2.0,
+    }
 }
 
 /// Classifies every atom. `has_p(atom)` says whether the atom has valence p functions

@@ -46,6 +46,17 @@ pub enum HybridModel {
     Localized,
 }
 
+impl HybridModel {
+    /// The JSON name: "geometric", "max_overlap" or "localized" (DESIGN §5.5).
+    pub fn as_str(self) -> &'static str {
+        match self {
+            HybridModel::Geometric => "geometric",
+            HybridModel::MaxOverlap => "max_overlap",
+            HybridModel::Localized => "localized",
+        }
+    }
+}
+
 /// Settings of the hybrid stage.
 #[derive(Clone, Debug, Default, PartialEq, Serialize, Deserialize)]
 #[serde(default)]
@@ -134,6 +145,18 @@ pub enum HybridKind {
     LonePair,
     /// Empty orbital completing the set.
     Vacant,
+}
+
+impl HybridKind {
+    /// The JSON name: "bond", "pi", "lone_pair" or "vacant".
+    pub fn as_str(self) -> &'static str {
+        match self {
+            HybridKind::Bond => "bond",
+            HybridKind::Pi => "pi",
+            HybridKind::LonePair => "lone_pair",
+            HybridKind::Vacant => "vacant",
+        }
+    }
 }
 
 /// One orbital of a centre's orthonormal s,p set.
