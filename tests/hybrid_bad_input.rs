@@ -350,3 +350,39 @@ fn bonds_naming_missing_atoms_are_dropped_and_reported() {
         vec![HybridError::NonFiniteCoordinate { atom: 2 }]
     );
 }
+
+#[test]
+fn user_bond_orders_beyond_the_centre_are_typed_errors() {
+    // A quadruple N–H bond and a triple bond at a three-coordinate carbon: impossible for
+    // four s,p orbitals; the errors name the atoms and nothing panics.
+    let mut m = molecule(AMMONIA);
+    m.set_bond_order(0, 1, 4).unwrap();
+    let eht = run(&m, &EhtSettings::default()).unwrap();
+    let analysis = analyze(&m, &eht, &HybridSettings::default());
+    assert!(analysis.errors.contains(&HybridError::BondOrderTooHigh {
+        a: 0,
+        b: 1,
+        order: 4
+    }));
+    assert!(analysis.errors.iter().any(|e| matches!(
+        e,
+        HybridError::TooManyOrbitals { atom: 0, .. }
+            | HybridError::NegativeLonePairs { atom: 0, .. }
+    )));
+    let ethylene = "6\nethylene\nC 0 0 0.6695\nC 0 0 -0.6695\nH 0 0.9289 1.2321\nH 0 -0.9289 1.2321\nH 0 0.9289 -1.2321\nH 0 -0.9289 -1.2321\n";
+    let mut m = molecule(ethylene);
+    m.set_bond_order(0, 1, 3).unwrap();
+    let eht = run(&m, &EhtSettings::default()).unwrap();
+    for model in [HybridModel::Geometric, HybridModel::MaxOverlap] {
+        let settings = HybridSettings {
+            model,
+            ..HybridSettings::default()
+        };
+        let analysis = analyze(&m, &eht, &settings);
+        assert!(analysis.centres.is_empty());
+        assert_eq!(analysis.errors.len(), 2, "{:?}", analysis.errors);
+        // The C–H bonds cannot be drawn without their carbon hybrids; the notes say so.
+        assert!(analysis.localized.is_empty());
+        assert!(!analysis.notes.is_empty());
+    }
+}
