@@ -6,5 +6,8 @@ pub mod analysis;
 pub mod chem;
 pub mod eht;
 pub mod hybrid;
+pub mod link;
+pub mod localize;
+pub mod lone_pair_mixing;
 pub mod project;
 pub mod report;
