@@ -14,16 +14,17 @@
 //! A_ij = Σ_A [(Q_A^ij)² − ¼(Q_A^i − Q_A^j)²] and B_ij = Σ_A Q_A^ij (Q_A^i − Q_A^j), the
 //! gain of the rotation (i, j) → (cos γ i + sin γ j, −sin γ i + cos γ j) is
 //! A_ij (1 − cos 4γ) + B_ij sin 4γ, maximal at 4γ = atan2(B_ij, −A_ij) with gain
-//! A_ij + √(A_ij² + B_ij²). A pair whose best gain is below [`MIN_PAIR_GAIN`] is left alone,
+//! A_ij + √(A_ij² + B_ij²). A flat pair (see [`FLAT_PAIR`]) is left alone,
 //! so degenerate cases (the lone pairs of one atom, a single atom, symmetric sets with many
 //! equivalent rotations) stop without wandering. The start is the input orbitals
 //! (deterministic); optionally a few fixed, deterministic rotated starts are tried as well
 //! and the best maximum kept. Convergence: the change of P over a full sweep below the
-//! tolerance (default 1e-10); a sweep cap makes non-convergence a reported state.
+//! tolerance (default 1e-10) and every |B_ij| in it below [`GRADIENT_TOLERANCE`]; a sweep cap makes non-convergence a reported state.
 //!
 //! **Reading.** Centres: the fewest atoms, by decreasing Mulliken population, whose
 //! populations add to at least [`CENTRE_SHARE`] (common practice, no source for the value).
-//! One centre: lone pair n(X); two: bond; more: multi-centre. A two-centre orbital is π when
+//! One centre: lone pair n(X); two: bond; more: multi-centre. Atoms in labels are in file
+//! order with hydrogen last. A two-centre orbital is π when
 //! its parts on the two atoms are mostly p perpendicular to the bond axis (a node plane
 //! containing the axis) and σ otherwise: see [`PI_PERPENDICULAR_SHARE`]. Each centre's part
 //! C_μk (μ ∈ A), renormalized (one-centre s, p, d Slater functions are orthonormal), is read
@@ -42,8 +43,16 @@ use crate::eht::Basis;
 pub const DEFAULT_TOLERANCE: f64 = 1e-10;
 /// Default cap on the number of Jacobi sweeps.
 pub const DEFAULT_MAX_SWEEPS: usize = 500;
-/// A pair rotation that would raise P by less than this is skipped (rounding level).
-pub const MIN_PAIR_GAIN: f64 = 1e-14;
+/// A pair whose function is flat (√(A² + B²) below this: every rotation gives the same P,
+/// as for the lone pairs of an isolated atom) is left alone. Rounding level, no source.
+pub const FLAT_PAIR: f64 = 1e-12;
+/// Besides the change of P, convergence asks that every pair's gradient
+/// dP/dγ at γ = 0, which is 4 B_ij, was below 4 × this in the last sweep: P is flat at its
+/// maximum, so a change of P below 1e-10 alone may leave the orbitals ~1e-5 rad from it.
+/// Our choice, no source (PySCF also tests a gradient norm beside the function change).
+pub const GRADIENT_TOLERANCE: f64 = 1e-9;
+/// Rotations by less than this angle (radians) are skipped (rounding level).
+pub const MIN_ANGLE: f64 = 1e-12;
 /// Centres of a localized orbital: the fewest atoms whose Mulliken populations add to this.
 /// Common practice, no source: 0.9 keeps EHT lone pairs one-centre and polar bonds
 /// two-centre for the demo molecules.
@@ -287,6 +296,7 @@ fn run_jacobi(
     while !converged && sweeps < options.max_sweeps {
         sweeps += 1;
         let before = current;
+        let mut largest_gradient: f64 = 0.0;
         for i in 0..n {
             for j in i + 1..n {
                 qij.iter_mut().for_each(|x| *x = 0.0);
@@ -300,12 +310,15 @@ fn run_jacobi(
                     a += x * x - 0.25 * d * d;
                     b += x * d;
                 }
+                largest_gradient = largest_gradient.max(b.abs());
                 let norm = a.hypot(b);
-                let gain = a + norm;
-                if gain < MIN_PAIR_GAIN {
+                if norm < FLAT_PAIR {
                     continue;
                 }
                 let gamma = 0.25 * b.atan2(-a);
+                if gamma.abs() < MIN_ANGLE {
+                    continue;
+                }
                 let (s, co) = gamma.sin_cos();
                 for mu in 0..n_ao {
                     let (ci, cj) = (c[(i, mu)], c[(j, mu)]);
@@ -334,7 +347,7 @@ fn run_jacobi(
             compute_diag(&c, &sc, i, &mut q[i * atoms..(i + 1) * atoms]);
         }
         current = value(&q);
-        if (current - before).abs() < options.tolerance {
+        if (current - before).abs() < options.tolerance && largest_gradient < GRADIENT_TOLERANCE {
             converged = true;
         }
     }
@@ -646,8 +659,15 @@ fn label_for(
             .map(|atom| atom.element.symbol())
             .unwrap_or("?")
     };
+    // Atom order: file order, hydrogen last (σ(C–H), σ(C–N) in H–C≡N).
     let mut by_index = centres.to_vec();
-    by_index.sort_unstable();
+    let is_hydrogen = |a: usize| {
+        molecule
+            .atoms
+            .get(a)
+            .is_some_and(|atom| atom.element.atomic_number() == 1)
+    };
+    by_index.sort_by_key(|&a| (is_hydrogen(a), a));
     let joined = by_index
         .iter()
         .map(|&a| symbol(a))
