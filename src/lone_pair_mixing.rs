@@ -7,7 +7,8 @@
 //! zero (its diagonal ⟨l|H|l⟩ = the hybrid energy (ε_s + λ ε_p)/(1 + λ) is kept), the
 //! generalized eigenproblem is solved again (`eht::solve`) and the coefficients are
 //! transformed back to the original AO basis. This is the first-order diagram one draws by
-//! hand; with mixing on, the ordinary solution. Levels of the two solutions are paired by
+//! hand; with mixing on, the ordinary solution. (The held MOs are orthonormal in the
+//! modified overlap, with l's elements zeroed, not in the original S.) Levels of the two solutions are paired by
 //! the largest total squared overlap |ψ_offᵀ S ψ_on|² (an optimal assignment, the
 //! Hungarian method: H. W. Kuhn, Naval Res. Logist. Q. 2, 83 (1955)), so labels carry over.
 
