@@ -6,8 +6,11 @@
 use serde::{Deserialize, Serialize};
 use thiserror::Error;
 
+mod stages;
+
 use crate::chem::molecule::{Molecule, MoleculeError};
 use crate::eht::{self, EhtResult, EhtSettings};
+use crate::hybrid::{HybridAnalysis, HybridSettings};
 use crate::symmetry::{self, Symmetry, SymmetrySettings, SymmetrySummary};
 
 /// Method options of the document. Every field has a default so that older project files
@@ -21,6 +24,8 @@ pub struct Settings {
     pub symmetry: SymmetrySettings,
     /// Extended Hückel options (K, weighting, parameter overrides).
     pub eht: EhtSettings,
+    /// Hybrid model, lone-pair convention, per-atom overrides.
+    pub hybrid: HybridSettings,
 }
 
 impl Default for Settings {
@@ -29,6 +34,7 @@ impl Default for Settings {
             lone_pair_mixing: true,
             symmetry: SymmetrySettings::default(),
             eht: EhtSettings::default(),
+            hybrid: HybridSettings::default(),
         }
     }
 }
@@ -93,13 +99,44 @@ pub struct LocalizedSummary {
     pub occupancy: f64,
     /// e.g. "σ(N–H)", "n(N)".
     pub label: String,
+    /// Σ over occupied canonical MOs of the link weights: how much of this orbital the
+    /// occupied space holds.
+    pub captured: f64,
+    /// AO coefficients (normalized with S), for maps and links.
+    #[serde(skip)]
+    pub coefficients: Vec<f64>,
 }
 
-/// Weight of canonical MO `canonical` in localized orbital `localized` (DESIGN §4.6).
+/// One hybrid of one centre, in any model (DESIGN §5.5 `hybrids`).
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct HybridEntry {
+    pub center: usize,
+    /// The bonded partner, or None for a lone pair.
+    pub partner: Option<usize>,
+    /// "bond", "pi", "lone_pair" or "vacant".
+    pub kind: String,
+    /// Hybridization index λ of sp^λ; None for a pure p orbital (λ → ∞).
+    pub lambda: Option<f64>,
+    pub s_percent: f64,
+    pub p_percent: f64,
+    /// ε(sp^λ) = (ε_s + λ ε_p)/(1 + λ), eV (hybrid models only).
+    pub energy_ev: Option<f64>,
+    /// Angle between the hybrid and the internuclear axis, degrees.
+    pub bending_degrees: Option<f64>,
+    /// Unit vector the hybrid points along (molecule frame).
+    pub direction: [f64; 3],
+    /// "geometric", "max_overlap" or "localized".
+    pub model: String,
+}
+
+/// Weight of canonical MO `canonical` in localized orbital `localized` (DESIGN §4.6);
+/// for a degenerate set, the summed weight, listed under the set's first member.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct LinkSummary {
     pub localized: usize,
     pub canonical: usize,
+    /// All members of the canonical degenerate set.
+    pub members: Vec<usize>,
     pub weight: f64,
 }
 
@@ -119,10 +156,17 @@ pub struct Analysis {
     pub eht: Option<EhtResult>,
     /// The canonical MOs in ascending energy (empty if the MO stage failed).
     pub orbitals: Vec<OrbitalSummary>,
-    /// The localized ladder (empty until the hybrid stage has run).
+    /// Hybrids of every centre (geometric or maximum-overlap model).
+    pub hybrids: Option<HybridAnalysis>,
+    /// The hybrids of the chosen model as a flat list (for reports and JSON).
+    pub hybrid_entries: Vec<HybridEntry>,
+    /// The localized ladder: hybrid-model bonds and lone pairs, or Pipek–Mezey orbitals.
     pub localized: Vec<LocalizedSummary>,
-    /// Canonical ↔ localized weights above 1e-4.
+    /// Canonical ↔ localized weights above 1e-4 (degenerate sets summed).
     pub links: Vec<LinkSummary>,
+    /// Per canonical orbital: energy in the other state of the lone-pair mixing switch
+    /// minus its energy here (eV); empty when there is no lone pair.
+    pub level_shifts: Vec<f64>,
     pub errors: Vec<StageError>,
 }
 
@@ -155,6 +199,28 @@ impl Analysis {
                 None
             }
         };
+        let hybrids = eht
+            .as_ref()
+            .map(|solution| crate::hybrid::analyze(molecule, solution, &settings.hybrid));
+        if let Some(found) = &hybrids {
+            for error in &found.errors {
+                errors.push(StageError {
+                    stage: Stage::Hybrids,
+                    message: error.to_string(),
+                });
+            }
+        }
+        let mut eht = eht;
+        let mut level_shifts = Vec::new();
+        if let (Some(solution), Some(found)) = (eht.as_mut(), &hybrids) {
+            match stages::apply_lone_pair_switch(solution, found, settings.lone_pair_mixing) {
+                Ok(shifts) => level_shifts = shifts,
+                Err(message) => errors.push(StageError {
+                    stage: Stage::Orbitals,
+                    message,
+                }),
+            }
+        }
         let mut orbitals = eht.as_ref().map(orbital_summaries).unwrap_or_default();
         if let (Some(found), Some(solution)) = (&symmetry, &eht) {
             let labels = symmetry::label_orbitals(
@@ -171,6 +237,30 @@ impl Analysis {
                 orbital.label = Some(label.text);
             }
         }
+        let mut localized = Vec::new();
+        let mut links = Vec::new();
+        let mut hybrid_entries = hybrids.as_ref().map(stages::hybrid_entries).unwrap_or_default();
+        if let Some(solution) = &eht {
+            match stages::localized_ladder(molecule, solution, hybrids.as_ref(), &settings.hybrid) {
+                Ok((ladder, pm_hybrids)) => {
+                    localized = ladder;
+                    if settings.hybrid.model == crate::hybrid::HybridModel::Localized {
+                        hybrid_entries = pm_hybrids;
+                    }
+                }
+                Err(message) => errors.push(StageError {
+                    stage: Stage::Localization,
+                    message,
+                }),
+            }
+            match stages::links(solution, &orbitals, &mut localized) {
+                Ok(found) => links = found,
+                Err(message) => errors.push(StageError {
+                    stage: Stage::Links,
+                    message,
+                }),
+            }
+        }
         Ok(Analysis {
             molecule: molecule.clone(),
             settings: settings.clone(),
@@ -180,8 +270,11 @@ impl Analysis {
             symmetry_summary,
             eht,
             orbitals,
-            localized: Vec::new(),
-            links: Vec::new(),
+            hybrids,
+            hybrid_entries,
+            localized,
+            links,
+            level_shifts,
             errors,
         })
     }
