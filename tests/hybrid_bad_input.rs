@@ -386,3 +386,29 @@ fn user_bond_orders_beyond_the_centre_are_typed_errors() {
         assert!(!analysis.notes.is_empty());
     }
 }
+
+#[test]
+fn coincident_bond_directions_fail_only_that_centre() {
+    // Formaldehyde plus a hydrogen far out beyond C on the O=C axis, bonded to O by hand:
+    // O's two partners lie in one direction, so no orthonormal hybrids can face both. O is
+    // reported; C is still described.
+    let text = "5\nbad\nC 0 0 0\nO 0 0 1.205\nH 0 0.94269485 -0.58791787\nH 0 -0.94269485 -0.58791787\nH 0 0 -2.0\n";
+    let mut m = molecule(text);
+    m.bonds.push(diptych::chem::molecule::Bond::new(1, 4, 1));
+    let eht = run(&m, &EhtSettings::default()).unwrap();
+    for model in [HybridModel::Geometric, HybridModel::MaxOverlap] {
+        let mut settings = HybridSettings {
+            model,
+            ..HybridSettings::default()
+        };
+        // One lone pair on O, so that it needs exactly four orbitals.
+        settings.lone_pair_overrides.insert(1, 1);
+        let analysis = analyze(&m, &eht, &settings);
+        assert_eq!(
+            analysis.errors,
+            vec![HybridError::DependentPartners { atom: 1 }]
+        );
+        assert!(analysis.centre(1).is_none());
+        assert!(analysis.centre(0).is_some());
+    }
+}

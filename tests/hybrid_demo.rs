@@ -503,3 +503,48 @@ fn kind_names_match_their_serde_names() {
         );
     }
 }
+
+#[test]
+fn pyramidal_ax3e_energies_up_the_gap() {
+    // The textbook worked example for pyramidal AX3 (common practice, no source): with 107°
+    // bonds the bond hybrids are sp^3.4 and the lone pair near sp^2.1, lying 0.77 and 0.68
+    // of the s–p gap above ε_s. Checked end to end on NH3 built at 107°.
+    let theta = 107f64.to_radians();
+    let sin_beta = ((2.0 / 3.0) * (1.0 - theta.cos())).sqrt();
+    let cos_beta = (1.0 - sin_beta * sin_beta).sqrt();
+    let mut lines = vec![
+        "4".to_string(),
+        "NH3 at 107°".to_string(),
+        "N 0 0 0".to_string(),
+    ];
+    for k in 0..3 {
+        let phi = 2.0 * std::f64::consts::PI * k as f64 / 3.0;
+        let r = 1.012;
+        lines.push(format!(
+            "H {:.10} {:.10} {:.10}",
+            r * sin_beta * phi.cos(),
+            r * sin_beta * phi.sin(),
+            -r * cos_beta
+        ));
+    }
+    let molecule = parse_xyz(&lines.join("\n"), "nh3").unwrap().molecule;
+    assert!((molecule.angle(1, 0, 2).unwrap() - 107.0).abs() < 1e-6);
+    let eht = run(&molecule, &EhtSettings::default()).unwrap();
+    let analysis = analyze(&molecule, &eht, &HybridSettings::default());
+    let n = analysis.centre(0).unwrap();
+    for h in &n.hybrids {
+        let (lambda, fraction) = match h.kind {
+            HybridKind::Bond => (3.42, 0.77),
+            HybridKind::LonePair => (2.11, 0.68),
+            _ => panic!("unexpected {:?}", h.kind),
+        };
+        assert!((h.lambda.unwrap() - lambda).abs() < 0.01, "{:?}", h.lambda);
+        assert!(
+            (h.gap_fraction - fraction).abs() < 0.005,
+            "{}",
+            h.gap_fraction
+        );
+        let expected = n.eps_s + fraction * (n.eps_p - n.eps_s);
+        assert!((h.energy_ev - expected).abs() < 0.005 * (n.eps_p - n.eps_s).abs() + 1e-9);
+    }
+}

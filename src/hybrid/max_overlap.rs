@@ -11,7 +11,7 @@
 //! are sought in the space orthogonal to them, and the lone pairs and vacant orbitals
 //! complete the orthonormal set as in the geometric model.
 
-use nalgebra::{DMatrix, Matrix4, Vector3, Vector4};
+use nalgebra::{DMatrix, Vector3, Vector4};
 
 use super::coulson::gram_schmidt;
 
@@ -122,11 +122,6 @@ pub fn orthonormality_error(set: &[Vector4<f64>]) -> f64 {
         }
     }
     worst
-}
-
-/// The 4×4 projector onto the span of orthonormal vectors.
-pub fn projector(vectors: &[Vector4<f64>]) -> Matrix4<f64> {
-    vectors.iter().map(|v| v * v.transpose()).sum()
 }
 
 #[cfg(test)]

@@ -527,6 +527,9 @@ pub fn analyze(molecule: &Molecule, eht: &EhtResult, settings: &HybridSettings) 
             iterations += 1;
             change = 0.0f64;
             for &k in &active {
+                if states[k].failed {
+                    continue;
+                }
                 let count = states[k].bonds.len();
                 let targets: Vec<Vector4<f64>> =
                     (0..count).map(|slot| target(&states, k, slot)).collect();
