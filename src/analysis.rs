@@ -239,7 +239,10 @@ impl Analysis {
         }
         let mut localized = Vec::new();
         let mut links = Vec::new();
-        let mut hybrid_entries = hybrids.as_ref().map(stages::hybrid_entries).unwrap_or_default();
+        let mut hybrid_entries = hybrids
+            .as_ref()
+            .map(stages::hybrid_entries)
+            .unwrap_or_default();
         if let Some(solution) = &eht {
             match stages::localized_ladder(molecule, solution, hybrids.as_ref(), &settings.hybrid) {
                 Ok((ladder, pm_hybrids)) => {

@@ -27,7 +27,11 @@ fn lone_pair_orbitals(eht: &EhtResult, hybrids: &HybridAnalysis) -> Vec<DVector<
         let Some(range) = eht.basis.atom_ranges.get(centre.atom) else {
             continue;
         };
-        for hybrid in centre.hybrids.iter().filter(|h| h.kind == HybridKind::LonePair) {
+        for hybrid in centre
+            .hybrids
+            .iter()
+            .filter(|h| h.kind == HybridKind::LonePair)
+        {
             let mut vector = DVector::zeros(eht.basis.len());
             for mu in range.clone() {
                 vector[mu] = match eht.basis.orbitals[mu].kind {
@@ -57,7 +61,8 @@ pub(super) fn apply_lone_pair_switch(
     if lone_pairs.is_empty() {
         return Ok(Vec::new());
     }
-    let comparison = compare_mixing(eht, &lone_pairs).map_err(|e| format!("lone-pair switch: {e}"))?;
+    let comparison =
+        compare_mixing(eht, &lone_pairs).map_err(|e| format!("lone-pair switch: {e}"))?;
     let count = comparison.shifts.len();
     if mixing_on {
         let mut shifts = vec![0.0; count];
@@ -114,16 +119,28 @@ pub(super) fn localized_ladder(
     settings: &HybridSettings,
 ) -> Result<(Vec<LocalizedSummary>, Vec<HybridEntry>), String> {
     if settings.model == HybridModel::Localized {
-        let localized = localize_occupied(eht, &LocalizeOptions::default()).map_err(|e| e.to_string())?;
-        let described = describe(&localized.orbitals, &eht.overlap, &eht.hamiltonian, &eht.basis, molecule)
-            .map_err(|e| e.to_string())?;
+        let localized =
+            localize_occupied(eht, &LocalizeOptions::default()).map_err(|e| e.to_string())?;
+        let described = describe(
+            &localized.orbitals,
+            &eht.overlap,
+            &eht.hamiltonian,
+            &eht.basis,
+            molecule,
+        )
+        .map_err(|e| e.to_string())?;
         let entries = described
             .iter()
             .flat_map(|orbital| {
                 orbital.hybrids.iter().map(|hybrid| HybridEntry {
                     center: hybrid.atom,
                     partner: hybrid.partner,
-                    kind: if hybrid.partner.is_some() { "bond" } else { "lone_pair" }.into(),
+                    kind: if hybrid.partner.is_some() {
+                        "bond"
+                    } else {
+                        "lone_pair"
+                    }
+                    .into(),
                     lambda: hybrid.lambda,
                     s_percent: 100.0 * hybrid.s_share,
                     p_percent: 100.0 * hybrid.p_share,
@@ -207,7 +224,10 @@ pub(super) fn links(
     let mut matrix = DMatrix::zeros(n, localized.len());
     for (k, orbital) in localized.iter().enumerate() {
         if orbital.coefficients.len() != n {
-            return Err(format!("localized orbital {} has the wrong length", orbital.label));
+            return Err(format!(
+                "localized orbital {} has the wrong length",
+                orbital.label
+            ));
         }
         matrix.set_column(k, &DVector::from_column_slice(&orbital.coefficients));
     }

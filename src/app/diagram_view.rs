@@ -187,6 +187,21 @@ fn draw_level(
             3.0,
         ));
     }
+    if let Some(shifted) = level.shifted_y {
+        // Where this level goes with the lone-pair switch flipped.
+        let a = map.point(level.x_left, shifted);
+        let b = map.point(level.x_right, shifted);
+        painter.extend(egui::Shape::dashed_line(
+            &[a, b],
+            Stroke::new(1.2, faint),
+            2.0,
+            3.0,
+        ));
+        painter.line_segment(
+            [left - Vec2::new(4.0, 0.0), a - Vec2::new(4.0, 0.0)],
+            Stroke::new(1.0, faint),
+        );
+    }
     draw_electrons(painter, left, right, level.occupancy, ink, map.scale);
     if level.label_x.is_finite() {
         let anchor = map.point(level.label_x, level.label_y);

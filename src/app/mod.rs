@@ -139,6 +139,14 @@ impl DiptychApp {
                 .labelled_by(right_label.id);
         });
         ui.horizontal_wrapped(|ui| {
+            ui.checkbox(
+                &mut self.state.project.settings.lone_pair_mixing,
+                "Lone-pair mixing",
+            )
+            .on_hover_text(
+                "On: the full solution. Off: each lone pair's p orbital is held non-bonding \
+                     (the first-order diagram). Dotted marks show where levels go when flipped.",
+            );
             ui.checkbox(&mut self.state.project.view.show_energies, "Energies");
             ui.add(
                 egui::Slider::new(&mut self.state.project.view.link_threshold, 0.0..=0.5)

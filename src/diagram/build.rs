@@ -59,22 +59,46 @@ pub fn diagram_for(analysis: &Analysis, options: &DiagramOptions) -> Diagram {
                     .unwrap_or_else(|| format!("ψ{}", orbital.index + 1)),
                 group,
                 key: orbital.index,
+                shift_ev: analysis
+                    .level_shifts
+                    .get(orbital.index)
+                    .copied()
+                    .unwrap_or(0.0),
             })
             .collect(),
     };
+    // Equivalent localized orbitals (same label, same energy: the three σ(N–H) of
+    // ammonia) are drawn side by side like a degenerate set.
+    let mut localized_groups: Vec<(String, f64, usize)> = Vec::new();
     let localized = LadderInput {
         title: options.titles.localized.clone(),
         levels: analysis
             .localized
             .iter()
             .enumerate()
-            .map(|(n, level)| LevelInput {
-                energy_ev: level.energy_ev,
-                occupancy: level.occupancy,
-                label: level.label.clone(),
-                // Localized levels are never merged: each is its own bond or lone pair.
-                group: LOCALIZED_KEY_OFFSET + n,
-                key: LOCALIZED_KEY_OFFSET + n,
+            .map(|(n, level)| {
+                let existing = localized_groups
+                    .iter()
+                    .find(|(label, energy, _)| {
+                        *label == level.label && (energy - level.energy_ev).abs() < DEGENERACY_EV
+                    })
+                    .map(|(_, _, group)| *group);
+                let group = existing.unwrap_or_else(|| {
+                    localized_groups.push((
+                        level.label.clone(),
+                        level.energy_ev,
+                        LOCALIZED_KEY_OFFSET + n,
+                    ));
+                    LOCALIZED_KEY_OFFSET + n
+                });
+                LevelInput {
+                    energy_ev: level.energy_ev,
+                    occupancy: level.occupancy,
+                    label: level.label.clone(),
+                    group,
+                    key: LOCALIZED_KEY_OFFSET + n,
+                    shift_ev: 0.0,
+                }
             })
             .collect(),
     };

@@ -45,6 +45,8 @@ pub struct LevelInput {
     pub group: usize,
     /// An identifier the caller uses to map a level back to its orbital.
     pub key: usize,
+    /// Where the level moves when the lone-pair mixing switch is flipped (eV, 0 = stays).
+    pub shift_ev: f64,
 }
 
 /// One ladder given to the layout.
@@ -80,6 +82,9 @@ pub struct Level {
     pub label_y: f64,
     pub is_homo: bool,
     pub is_lumo: bool,
+    /// Vertical position of the level with the lone-pair switch flipped, when it moves
+    /// by more than 0.01 eV.
+    pub shifted_y: Option<f64>,
 }
 
 /// A placed correlation line, between the inner ends of two bars.
@@ -266,9 +271,16 @@ fn place_ladder(input: &LadderInput, span: (f64, f64), side: usize, min: f64, ma
                 y,
                 label_x: 0.0,
                 label_y: y,
-                // Tagged once per set, on its last member (the inner end of the set).
-                is_homo: n + 1 == members.len() && (member.energy_ev - homo_energy).abs() < 1e-6,
-                is_lumo: n + 1 == members.len() && (member.energy_ev - lumo_energy).abs() < 1e-6,
+                // Tagged once per set, on its last member, in the canonical ladder only (a
+                // Lewis ladder has no frontier orbitals of its own).
+                is_homo: side == 0
+                    && n + 1 == members.len()
+                    && (member.energy_ev - homo_energy).abs() < 1e-6,
+                is_lumo: side == 0
+                    && n + 1 == members.len()
+                    && (member.energy_ev - lumo_energy).abs() < 1e-6,
+                shifted_y: (member.shift_ev.abs() > 0.01)
+                    .then(|| y_of(member.energy_ev + member.shift_ev, min, max)),
             });
         }
     }
@@ -346,6 +358,13 @@ fn place_links(ladders: &[Ladder], links: &[LinkInput]) -> Vec<Link> {
         else {
             continue;
         };
+        // Lines of an equivalent set leave from the set's inner (left) end.
+        let inner_x = localized
+            .levels
+            .iter()
+            .filter(|l| l.group == from.group)
+            .map(|l| l.x_left)
+            .fold(f64::INFINITY, f64::min);
         let targets: Vec<&Level> = delocalized
             .levels
             .iter()
@@ -361,7 +380,7 @@ fn place_links(ladders: &[Ladder], links: &[LinkInput]) -> Vec<Link> {
             localized_key: link.localized_key,
             delocalized_group: link.delocalized_group,
             weight: link.weight,
-            from: (from.x_left, from.y),
+            from: (inner_x, from.y),
             to: (right_most.x_right, right_most.y),
         });
     }
@@ -379,6 +398,7 @@ mod tests {
             label: format!("L{key}"),
             group,
             key,
+            shift_ev: 0.0,
         }
     }
 

@@ -228,6 +228,19 @@ fn write_level(
         number(level.x_right),
         y = number(level.y)
     );
+    // Where the level goes with the lone-pair switch flipped: a faint dotted bar and an
+    // arrow from here to there.
+    if let Some(shifted) = level.shifted_y {
+        let _ = writeln!(
+            svg,
+            "<line x1=\"{}\" y1=\"{s}\" x2=\"{}\" y2=\"{s}\" stroke=\"{faint}\" stroke-width=\"1.5\" stroke-dasharray=\"2 3\"/><line x1=\"{x}\" y1=\"{}\" x2=\"{x}\" y2=\"{s}\" stroke=\"{faint}\" stroke-width=\"1\"/>",
+            number(level.x_left),
+            number(level.x_right),
+            number(level.y),
+            s = number(shifted),
+            x = number(level.x_left - 4.0)
+        );
+    }
     // Electrons: up and down arrows (one arrow for a singly occupied level).
     if level.occupancy > 0.05 {
         let centre = (level.x_left + level.x_right) / 2.0;
@@ -322,6 +335,7 @@ mod tests {
             label: label.into(),
             group: key,
             key,
+            shift_ev: 0.0,
         };
         layout(
             &[
