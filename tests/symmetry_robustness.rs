@@ -255,7 +255,7 @@ fn symmetrize_idealizes_a_distorted_geometry() {
 }
 
 proptest! {
-    #![proptest_config(ProptestConfig::with_cases(24))]
+    #![proptest_config(ProptestConfig::with_cases(200))]
     #[test]
     fn detection_is_invariant_to_orientation_and_position(
         ax in prop::array::uniform3(-1.0f64..1.0),
