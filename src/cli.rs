@@ -41,6 +41,12 @@ enum Command {
         /// Output format.
         #[arg(long, value_enum, default_value_t = Format::Text)]
         format: Format,
+        /// Hold each lone pair's p orbital non-bonding (the first-order diagram).
+        #[arg(long)]
+        no_lone_pair_mixing: bool,
+        /// Hybrid model for the localized picture.
+        #[arg(long, value_enum)]
+        model: Option<ModelArg>,
     },
     /// Export the correlation diagram as a standalone SVG file.
     Export {
@@ -55,6 +61,12 @@ enum Command {
         /// Net charge of the molecule (overrides the file's).
         #[arg(long, allow_hyphen_values = true)]
         charge: Option<i32>,
+        /// Hold each lone pair's p orbital non-bonding (the first-order diagram).
+        #[arg(long)]
+        no_lone_pair_mixing: bool,
+        /// Hybrid model for the localized picture.
+        #[arg(long, value_enum)]
+        model: Option<ModelArg>,
         /// Grey tones only (for print).
         #[arg(long)]
         greyscale: bool,
@@ -68,6 +80,45 @@ enum Command {
         #[arg(long)]
         force: bool,
     },
+}
+
+/// The hybrid models of DESIGN §4.4.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
+enum ModelArg {
+    /// Coulson's relations from the bond angles.
+    Geometric,
+    /// Maximum overlap with the partners' orbitals.
+    MaxOverlap,
+    /// Read from Pipek–Mezey localized MOs.
+    Localized,
+}
+
+impl From<ModelArg> for diptych::hybrid::HybridModel {
+    fn from(value: ModelArg) -> Self {
+        match value {
+            ModelArg::Geometric => diptych::hybrid::HybridModel::Geometric,
+            ModelArg::MaxOverlap => diptych::hybrid::HybridModel::MaxOverlap,
+            ModelArg::Localized => diptych::hybrid::HybridModel::Localized,
+        }
+    }
+}
+
+/// Method choices given on the command line, applied over the project's settings.
+#[derive(Clone, Copy, Debug, Default)]
+struct MethodFlags {
+    no_lone_pair_mixing: bool,
+    model: Option<ModelArg>,
+}
+
+impl MethodFlags {
+    fn apply(&self, settings: &mut Settings) {
+        if self.no_lone_pair_mixing {
+            settings.lone_pair_mixing = false;
+        }
+        if let Some(model) = self.model {
+            settings.hybrid.model = model.into();
+        }
+    }
 }
 
 #[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
@@ -84,18 +135,32 @@ pub fn main() -> ExitCode {
             file,
             charge,
             format,
-        }) => analyze(&file, charge, format),
+            no_lone_pair_mixing,
+            model,
+        }) => {
+            let flags = MethodFlags {
+                no_lone_pair_mixing,
+                model,
+            };
+            analyze(&file, charge, format, flags)
+        }
         Some(Command::Export {
             file,
             output,
             names,
             charge,
+            no_lone_pair_mixing,
+            model,
             greyscale,
             width,
             height,
             force,
         }) => {
             let request = ExportRequest {
+                flags: MethodFlags {
+                    no_lone_pair_mixing,
+                    model,
+                },
                 names,
                 greyscale,
                 width,
@@ -134,9 +199,10 @@ fn run_analysis(opened: &Opened, settings: &Settings) -> Result<Analysis, ExitCo
     Ok(analysis)
 }
 
-fn analyze(file: &Path, charge: Option<i32>, format: Format) -> ExitCode {
+fn analyze(file: &Path, charge: Option<i32>, format: Format, flags: MethodFlags) -> ExitCode {
     let result = open_for_cli(file, charge).and_then(|opened| {
-        let settings = opened.project.settings.clone();
+        let mut settings = opened.project.settings.clone();
+        flags.apply(&mut settings);
         run_analysis(&opened, &settings)
     });
     let analysis = match result {
@@ -151,6 +217,7 @@ fn analyze(file: &Path, charge: Option<i32>, format: Format) -> ExitCode {
 }
 
 struct ExportRequest {
+    flags: MethodFlags,
     names: Option<Vec<String>>,
     greyscale: bool,
     width: f64,
@@ -186,7 +253,8 @@ fn export(file: &Path, output: &Path, charge: Option<i32>, request: &ExportReque
         return ExitCode::from(2);
     }
     let result = open_for_cli(file, charge).and_then(|opened| {
-        let settings = opened.project.settings.clone();
+        let mut settings = opened.project.settings.clone();
+        request.flags.apply(&mut settings);
         run_analysis(&opened, &settings).map(|analysis| (opened, analysis))
     });
     let (opened, analysis) = match result {

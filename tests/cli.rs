@@ -252,3 +252,88 @@ fn ammonia_json_lists_seven_labelled_valence_orbitals() {
     assert_eq!(&labels[..4], &["2a1", "1e", "1e", "3a1"]);
     assert_eq!(orbitals[3]["irrep"], "a1");
 }
+
+fn ammonia_json(extra: &[&str]) -> serde_json::Value {
+    let output = diptych()
+        .args(["analyze", "demo_molecules/ammonia.xyz", "--format", "json"])
+        .args(extra)
+        .current_dir(repository())
+        .output()
+        .unwrap();
+    assert!(
+        output.status.success(),
+        "{}",
+        String::from_utf8_lossy(&output.stderr)
+    );
+    serde_json::from_slice(&output.stdout).unwrap()
+}
+
+#[test]
+fn ammonia_hybrids_follow_the_geometry() {
+    let json = ammonia_json(&[]);
+    let hybrids = json["hybrids"].as_array().unwrap();
+    let bonds: Vec<&serde_json::Value> = hybrids.iter().filter(|h| h["kind"] == "bond").collect();
+    let lone: Vec<&serde_json::Value> = hybrids
+        .iter()
+        .filter(|h| h["kind"] == "lone_pair")
+        .collect();
+    assert_eq!((bonds.len(), lone.len()), (3, 1));
+    // Coulson (Valence, 1952): equivalent bonds at ω have λ = −1/cos ω; the demo file's
+    // H–N–H angle is 106.7° (NIST CCCBDB, from memory).
+    let expected = -1.0 / 106.7f64.to_radians().cos();
+    for bond in &bonds {
+        assert!((bond["lambda"].as_f64().unwrap() - expected).abs() < 1e-3);
+        assert_eq!(bond["model"], "geometric");
+        assert!(bond["partner"].is_u64());
+    }
+    assert!(lone[0]["partner"].is_null());
+    let occupied = json["localized"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .filter(|l| l["occupancy"].as_f64().unwrap() > 0.0)
+        .count();
+    assert_eq!(occupied, 4, "three σ(N–H) and n(N)");
+}
+
+#[test]
+fn ammonia_link_weights_add_to_one_per_localized_orbital() {
+    let json = ammonia_json(&[]);
+    let localized = json["localized"].as_array().unwrap().len();
+    let links = json["links"].as_array().unwrap();
+    for k in 0..localized {
+        let total: f64 = links
+            .iter()
+            .filter(|l| l["localized"] == k)
+            .map(|l| l["weight"].as_f64().unwrap())
+            .sum();
+        // Entries below 1e-4 are not listed, so the listed sum may fall short by that much
+        // per canonical set (7 MOs here).
+        assert!((total - 1.0).abs() < 1e-3, "localized {k}: {total}");
+    }
+}
+
+#[test]
+fn switching_lone_pair_mixing_off_moves_only_a1_levels() {
+    let on = ammonia_json(&[]);
+    let off = ammonia_json(&["--no-lone-pair-mixing"]);
+    assert_eq!(off["lone_pair_mixing"], false);
+    let (on, off) = (
+        on["orbitals"].as_array().unwrap(),
+        off["orbitals"].as_array().unwrap(),
+    );
+    assert_eq!(on.len(), off.len());
+    let mut lone_pair_moved = false;
+    for (a, b) in on.iter().zip(off) {
+        assert_eq!(a["label"], b["label"], "labels stay consistent");
+        let shift = (a["energy_ev"].as_f64().unwrap() - b["energy_ev"].as_f64().unwrap()).abs();
+        if a["irrep"] != "a1" {
+            // Symmetry forbids the a1 lone-pair orbital to mix with e levels.
+            assert!(shift < 1e-8, "{} moved by {shift}", a["label"]);
+        }
+        if a["label"] == "3a1" {
+            lone_pair_moved = shift > 0.1;
+        }
+    }
+    assert!(lone_pair_moved, "the lone-pair level moves with the switch");
+}
