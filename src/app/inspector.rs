@@ -89,10 +89,75 @@ fn localized_orbital(ui: &mut egui::Ui, analysis: &Analysis, level: LevelRef) {
     else {
         return;
     };
+    let index = level.key - LOCALIZED_KEY_OFFSET;
+    let atom_name = |atom: usize| format!("{}{atom}", analysis.molecule.atoms[atom].element);
+    let atoms: Vec<String> = orbital.atoms.iter().map(|&a| atom_name(a)).collect();
     ui.heading(format!("Localized {}", orbital.label));
-    ui.label(format!(
-        "{} eV, occupancy {:.2}",
-        format_energy(orbital.energy_ev, 3),
-        orbital.occupancy
-    ));
+    egui::Grid::new("localized facts")
+        .num_columns(2)
+        .show(ui, |ui| {
+            ui.label("Atoms");
+            ui.label(atoms.join("–"));
+            ui.end_row();
+            ui.label("Energy");
+            ui.label(format!("{} eV", format_energy(orbital.energy_ev, 3)));
+            ui.end_row();
+            ui.label("Occupancy");
+            ui.label(format!("{:.2}", orbital.occupancy));
+            ui.end_row();
+            ui.label("In occupied MOs");
+            ui.label(format!("{:.1} %", 100.0 * orbital.captured));
+            ui.end_row();
+        });
+    ui.add_space(4.0);
+    ui.strong("Canonical constituents (weights)");
+    let mut parts: Vec<_> = analysis
+        .links
+        .iter()
+        .filter(|l| l.localized == index)
+        .collect();
+    parts.sort_by(|a, b| b.weight.total_cmp(&a.weight));
+    egui::Grid::new("constituents")
+        .num_columns(2)
+        .striped(true)
+        .show(ui, |ui| {
+            for link in parts.iter().filter(|l| l.weight >= 0.005) {
+                let name = analysis
+                    .orbitals
+                    .get(link.canonical)
+                    .and_then(|o| o.label.clone())
+                    .unwrap_or_else(|| format!("ψ{}", link.canonical + 1));
+                ui.label(name);
+                ui.label(format!("{:.3}", link.weight));
+                ui.end_row();
+            }
+        });
+    ui.add_space(4.0);
+    ui.strong("Hybrids");
+    egui::Grid::new("hybrids of orbital")
+        .num_columns(4)
+        .striped(true)
+        .show(ui, |ui| {
+            for entry in analysis.hybrid_entries.iter().filter(|h| {
+                orbital.atoms.contains(&h.center)
+                    && match orbital.atoms.as_slice() {
+                        [_] => h.partner.is_none(),
+                        [a, b] => h.partner == Some(if h.center == *a { *b } else { *a }),
+                        _ => false,
+                    }
+            }) {
+                ui.label(atom_name(entry.center));
+                ui.label(match entry.lambda {
+                    Some(lambda) if lambda < 1e3 => format!("sp^{lambda:.2}"),
+                    _ => "p".into(),
+                });
+                ui.label(format!("{:.0} % s", entry.s_percent));
+                ui.label(
+                    entry
+                        .bending_degrees
+                        .map_or(String::new(), |b| format!("bent {b:.1}°")),
+                );
+                ui.end_row();
+            }
+        });
 }

@@ -3,6 +3,8 @@
 //! ordinary document edit: undoable, saved with the project, re-analysed off the UI thread.
 
 use diptych::analysis::Settings;
+use diptych::hybrid::HybridModel;
+use diptych::hybrid::coulson::LonePairConvention;
 use diptych::symmetry::{AxisConvention, MAX_TOLERANCE, Numbering};
 use eframe::egui;
 
@@ -69,6 +71,45 @@ pub fn show(ctx: &egui::Context, open: &mut bool, settings: &mut Settings) {
                             &mut settings.symmetry.numbering,
                             Numbering::ValenceOnly,
                             "valence only (1a1, 2a1 …)",
+                        );
+                    });
+                    ui.end_row();
+                });
+            ui.separator();
+            ui.strong("Localized picture");
+            egui::Grid::new("hybrid settings")
+                .num_columns(2)
+                .show(ui, |ui| {
+                    ui.label("Hybrid model");
+                    ui.vertical(|ui| {
+                        ui.radio_value(
+                            &mut settings.hybrid.model,
+                            HybridModel::Geometric,
+                            "geometric (Coulson)",
+                        );
+                        ui.radio_value(
+                            &mut settings.hybrid.model,
+                            HybridModel::MaxOverlap,
+                            "maximum overlap",
+                        );
+                        ui.radio_value(
+                            &mut settings.hybrid.model,
+                            HybridModel::Localized,
+                            "from localized MOs (Pipek–Mezey)",
+                        );
+                    });
+                    ui.end_row();
+                    ui.label("Two lone pairs");
+                    ui.vertical(|ui| {
+                        ui.radio_value(
+                            &mut settings.hybrid.lone_pair_convention,
+                            LonePairConvention::SigmaAndPi,
+                            "one σ-type and one pure p",
+                        );
+                        ui.radio_value(
+                            &mut settings.hybrid.lone_pair_convention,
+                            LonePairConvention::Equivalent,
+                            "equivalent hybrids",
                         );
                     });
                     ui.end_row();

@@ -208,3 +208,50 @@ fn valence_only_numbering_relabels_the_diagram() {
     );
     assert!(harness.state().state.history.can_undo());
 }
+
+#[test]
+fn selecting_a_bond_shows_its_constituents_and_hybrids() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    let key = {
+        let analysis = harness.state().state.analysis.as_ref().unwrap();
+        let n = analysis
+            .localized
+            .iter()
+            .position(|l| l.label == "σ(N–H)")
+            .expect("an N–H bond");
+        diptych::diagram::build::LOCALIZED_KEY_OFFSET + n
+    };
+    harness.state_mut().state.selected_level = Some(LevelRef { ladder: 1, key });
+    harness.run_steps(2);
+    harness.get_by_label("Localized σ(N–H)");
+    harness.get_by_label("Canonical constituents (weights)");
+    // The e pair is the largest constituent of an N–H bond (group theory: a1 + e).
+    harness.get_by_label("1e");
+    // Coulson's λ for the 106.7° demo geometry.
+    harness.get_by_label("sp^3.48");
+}
+
+#[test]
+fn the_lone_pair_switch_moves_the_lone_pair_level() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    let homo = |harness: &Harness<'static, DiptychApp>| {
+        let analysis = harness.state().state.analysis.as_ref().unwrap();
+        analysis
+            .orbitals
+            .iter()
+            .rfind(|o| o.occupancy > 0.0)
+            .unwrap()
+            .energy_ev
+    };
+    let before = homo(&harness);
+    harness.get_by_label("Lone-pair mixing").click();
+    harness.run_steps(1);
+    wait_for_analysis(&mut harness);
+    let after = homo(&harness);
+    assert!(!harness.state().state.project.settings.lone_pair_mixing);
+    // Held non-bonding, ammonia's lone pair sits at the N 2p VSIP (−13.4 eV, Hoffmann 1963).
+    assert!((after + 13.4).abs() < 1e-6, "{after}");
+    assert!((after - before).abs() > 0.1);
+}
