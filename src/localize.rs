@@ -925,7 +925,9 @@ fn label_for(
     }
 }
 
-/// Localizes the occupied orbitals (occupation > 0) of an extended Hückel result.
+/// Localizes the occupied orbitals (occupation > 0) of an extended Hückel result. For an
+/// open shell the partly filled orbitals are included, so the localized set spans the
+/// occupied space; each localized orbital's electron count is then `Links::occupancy`.
 pub fn localize_occupied(
     eht: &crate::eht::EhtResult,
     options: &LocalizeOptions,

@@ -209,6 +209,19 @@ pub fn hold_non_bonding(
     })
 }
 
+/// The part of `orbital` (a vector over the full basis) on the atom whose functions are
+/// `range`, other entries zero: e.g. a localized lone-pair orbital restricted to its centre,
+/// the lone pair's atomic orbital for [`hold_non_bonding`] (which normalizes it).
+pub fn restrict_to_atom(orbital: &DVector<f64>, range: Range<usize>) -> DVector<f64> {
+    DVector::from_fn(orbital.len(), |mu, _| {
+        if range.contains(&mu) {
+            orbital[mu]
+        } else {
+            0.0
+        }
+    })
+}
+
 /// Both sides of the switch for an extended Hückel result.
 pub fn compare_mixing(
     eht: &EhtResult,

@@ -192,3 +192,44 @@ fn bad_lone_pairs_are_typed_errors() {
         assert!((a - b).abs() < 1e-10);
     }
 }
+
+/// The localized model's lone pair: the PM n(N) orbital restricted to nitrogen, held
+/// non-bonding. It gives a level at its own ⟨l|H|l⟩ and leaves the e levels alone (it is
+/// a1 by symmetry).
+#[test]
+fn localized_lone_pair_restricted_to_its_centre() {
+    use diptych::localize::{LocalizeOptions, LocalizedKind, describe, localize_occupied};
+    use diptych::lone_pair_mixing::restrict_to_atom;
+    let path = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("demo_molecules/ammonia.xyz");
+    let text = std::fs::read_to_string(path).expect("demo geometry");
+    let molecule = parse_xyz(&text, "ammonia").expect("valid XYZ").molecule;
+    let eht = run(&molecule, &EhtSettings::default()).expect("EHT runs");
+    let localized = localize_occupied(&eht, &LocalizeOptions::default()).expect("localizes");
+    let d = describe(
+        &localized.orbitals,
+        &eht.overlap,
+        &eht.hamiltonian,
+        &eht.basis,
+        &molecule,
+    )
+    .expect("describe");
+    let k = d
+        .iter()
+        .position(|o| o.kind == LocalizedKind::LonePair)
+        .expect("n(N)");
+    let lp = restrict_to_atom(
+        &localized.orbitals.column(k).clone_owned(),
+        eht.basis.atom_ranges[0].clone(),
+    );
+    let comparison = compare_mixing(&eht, &[lp]).expect("switch");
+    let e = comparison.off.lone_pair_energies[0];
+    assert!(
+        comparison
+            .off
+            .solution
+            .energies
+            .iter()
+            .any(|x| (x - e).abs() < 1e-8)
+    );
+    check_e_unchanged(&comparison);
+}
