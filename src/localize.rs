@@ -465,13 +465,11 @@ fn run_jacobi(
                     qij[atom] += 0.5 * scratch[lo..hi].iter().sum::<f64>();
                 }
             }
-            let (mut a, mut b) = (0.0, 0.0);
-            for atom in 0..atoms {
-                let d = q[i * atoms + atom] - q[j * atoms + atom];
-                let x = qij[atom];
-                a += x * x - 0.25 * d * d;
-                b += x * d;
-            }
+            let (a, b) = pair_terms(
+                &qij,
+                &q[i * atoms..(i + 1) * atoms],
+                &q[j * atoms..(j + 1) * atoms],
+            );
             largest_gradient = largest_gradient.max(b.abs());
             if full && b.abs() > threshold.max(GRADIENT_TOLERANCE) {
                 next_active.push((i, j));
@@ -577,6 +575,35 @@ fn ao_runs(atom_of_ao: &[usize]) -> Vec<(usize, usize, usize)> {
 #[inline]
 fn dot(a: &[f64], b: &[f64]) -> f64 {
     a.iter().zip(b).map(|(x, y)| x * y).sum()
+}
+
+/// A_ij = Σ_A [x_A² − ¼ d_A²] and B_ij = Σ_A x_A d_A with x = Q^ij, d = Q^i − Q^j, summed
+/// with four independent accumulators (no serial dependency chain).
+#[inline]
+fn pair_terms(qij: &[f64], qi: &[f64], qj: &[f64]) -> (f64, f64) {
+    let mut xx = [0.0; 4];
+    let mut dd = [0.0; 4];
+    let mut xd = [0.0; 4];
+    let chunks = qij.len() / 4;
+    for k in 0..chunks {
+        for l in 0..4 {
+            let m = 4 * k + l;
+            let x = qij[m];
+            let d = qi[m] - qj[m];
+            xx[l] += x * x;
+            dd[l] += d * d;
+            xd[l] += x * d;
+        }
+    }
+    for m in 4 * chunks..qij.len() {
+        let x = qij[m];
+        let d = qi[m] - qj[m];
+        xx[0] += x * x;
+        dd[0] += d * d;
+        xd[0] += x * d;
+    }
+    let sum = |v: [f64; 4]| (v[0] + v[1]) + (v[2] + v[3]);
+    (sum(xx) - 0.25 * sum(dd), sum(xd))
 }
 
 /// Columns i < j of two column-major matrices with `rows` rows:
