@@ -801,7 +801,10 @@ fn atom_part(b: &nalgebra::DVector<f64>, basis: &Basis, atom: usize) -> (f64, Ve
     let mut p = Vector3::zeros();
     let mut d = 0.0;
     if let Some(range) = basis.atom_ranges.get(atom) {
-        for mu in range.clone() {
+        for mu in range
+            .clone()
+            .filter(|&mu| mu < b.len() && mu < basis.orbitals.len())
+        {
             let c = b[mu];
             match basis.orbitals[mu].kind {
                 AngularKind::S => {

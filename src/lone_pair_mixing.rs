@@ -88,6 +88,12 @@ pub fn hold_non_bonding(
     electrons: usize,
 ) -> Result<HeldSolution, MixingError> {
     let n = s.nrows();
+    if n == 0 || s.ncols() != n || h.nrows() != n || h.ncols() != n {
+        return Err(MixingError::Solve(EhtError::DimensionMismatch {
+            h: (h.nrows(), h.ncols()),
+            s: (s.nrows(), s.ncols()),
+        }));
+    }
     if atom_ranges.iter().map(|r| r.len()).sum::<usize>() != n
         || atom_ranges.iter().any(|r| r.end > n)
     {

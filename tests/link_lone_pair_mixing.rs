@@ -233,3 +233,22 @@ fn localized_lone_pair_restricted_to_its_centre() {
     );
     check_e_unchanged(&comparison);
 }
+
+#[test]
+fn mismatched_matrices_are_typed_errors() {
+    use diptych::lone_pair_mixing::{MixingError, hold_non_bonding};
+    use nalgebra::DMatrix;
+    let h = DMatrix::<f64>::identity(3, 3);
+    let s = DMatrix::<f64>::identity(4, 4);
+    let lp = DVector::from_vec(vec![1.0, 0.0, 0.0, 0.0]);
+    let ranges = [0..2, 2..4];
+    assert!(matches!(
+        hold_non_bonding(&h, &s, &ranges, &[lp.clone()], 2),
+        Err(MixingError::Solve(_))
+    ));
+    let h = DMatrix::<f64>::identity(4, 4);
+    assert!(matches!(
+        hold_non_bonding(&h, &s, &[0..1], &[lp], 2),
+        Err(MixingError::Ranges { .. })
+    ));
+}
