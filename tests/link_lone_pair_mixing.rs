@@ -243,12 +243,12 @@ fn mismatched_matrices_are_typed_errors() {
     let lp = DVector::from_vec(vec![1.0, 0.0, 0.0, 0.0]);
     let ranges = [0..2, 2..4];
     assert!(matches!(
-        hold_non_bonding(&h, &s, &ranges, &[lp.clone()], 2),
+        hold_non_bonding(&h, &s, &ranges, std::slice::from_ref(&lp), 2),
         Err(MixingError::Solve(_))
     ));
     let h = DMatrix::<f64>::identity(4, 4);
     assert!(matches!(
-        hold_non_bonding(&h, &s, &[0..1], &[lp], 2),
+        hold_non_bonding(&h, &s, &[0..1, 1..2], &[lp], 2),
         Err(MixingError::Ranges { .. })
     ));
 }
