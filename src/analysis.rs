@@ -6,7 +6,12 @@
 use serde::{Deserialize, Serialize};
 use thiserror::Error;
 
+mod stages;
+
 use crate::chem::molecule::{Molecule, MoleculeError};
+use crate::eht::{self, EhtResult, EhtSettings};
+use crate::hybrid::{HybridAnalysis, HybridSettings};
+use crate::symmetry::{self, Symmetry, SymmetrySettings, SymmetrySummary};
 
 /// Method options of the document. Every field has a default so that older project files
 /// load; new options are added as new fields with `#[serde(default)]`.
@@ -15,12 +20,21 @@ use crate::chem::molecule::{Molecule, MoleculeError};
 pub struct Settings {
     /// Lone-pair mixing switch (DESIGN §4.6): on = full solution.
     pub lone_pair_mixing: bool,
+    /// Point-group tolerance, axis and numbering conventions.
+    pub symmetry: SymmetrySettings,
+    /// Extended Hückel options (K, weighting, parameter overrides).
+    pub eht: EhtSettings,
+    /// Hybrid model, lone-pair convention, per-atom overrides.
+    pub hybrid: HybridSettings,
 }
 
 impl Default for Settings {
     fn default() -> Self {
         Settings {
             lone_pair_mixing: true,
+            symmetry: SymmetrySettings::default(),
+            eht: EhtSettings::default(),
+            hybrid: HybridSettings::default(),
         }
     }
 }
@@ -50,6 +64,82 @@ pub struct StageError {
     pub message: String,
 }
 
+/// One canonical molecular orbital as the reports and panels show it.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct OrbitalSummary {
+    /// Index in the ascending list of orbitals.
+    pub index: usize,
+    pub energy_ev: f64,
+    pub occupancy: f64,
+    /// Irreducible representation (lower case, e.g. "a1"), when symmetry is known.
+    pub irrep: Option<String>,
+    /// Numbered label (e.g. "3a1"), when symmetry is known.
+    pub label: Option<String>,
+    /// Mulliken gross shares by atomic orbital, largest first, those ≥ 1 %.
+    pub composition: Vec<AoShare>,
+}
+
+/// One atomic orbital's Mulliken gross share of an MO: c_μ Σ_ν S_μν c_ν (Mulliken,
+/// J. Chem. Phys. 23, 1833 (1955)); the shares of one MO add to 1.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct AoShare {
+    pub atom: usize,
+    /// e.g. "2pz".
+    pub orbital: String,
+    pub share: f64,
+}
+
+/// One localized orbital (bond, antibond, lone pair) as the reports and panels show it.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct LocalizedSummary {
+    /// "bond", "antibond", "lone_pair", "pi", "pi_antibond", "multicentre".
+    pub kind: String,
+    pub atoms: Vec<usize>,
+    pub energy_ev: f64,
+    pub occupancy: f64,
+    /// e.g. "σ(N–H)", "n(N)".
+    pub label: String,
+    /// Σ over occupied canonical MOs of the link weights: how much of this orbital the
+    /// occupied space holds.
+    pub captured: f64,
+    /// AO coefficients (normalized with S), for maps and links.
+    #[serde(skip)]
+    pub coefficients: Vec<f64>,
+}
+
+/// One hybrid of one centre, in any model (DESIGN §5.5 `hybrids`).
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct HybridEntry {
+    pub center: usize,
+    /// The bonded partner, or None for a lone pair.
+    pub partner: Option<usize>,
+    /// "bond", "pi", "lone_pair" or "vacant".
+    pub kind: String,
+    /// Hybridization index λ of sp^λ; None for a pure p orbital (λ → ∞).
+    pub lambda: Option<f64>,
+    pub s_percent: f64,
+    pub p_percent: f64,
+    /// ε(sp^λ) = (ε_s + λ ε_p)/(1 + λ), eV (hybrid models only).
+    pub energy_ev: Option<f64>,
+    /// Angle between the hybrid and the internuclear axis, degrees.
+    pub bending_degrees: Option<f64>,
+    /// Unit vector the hybrid points along (molecule frame).
+    pub direction: [f64; 3],
+    /// "geometric", "max_overlap" or "localized".
+    pub model: String,
+}
+
+/// Weight of canonical MO `canonical` in localized orbital `localized` (DESIGN §4.6);
+/// for a degenerate set, the summed weight, listed under the set's first member.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct LinkSummary {
+    pub localized: usize,
+    pub canonical: usize,
+    /// All members of the canonical degenerate set.
+    pub members: Vec<usize>,
+    pub weight: f64,
+}
+
 /// Everything computed for one molecule and one set of settings.
 #[derive(Clone, Debug)]
 pub struct Analysis {
@@ -58,6 +148,25 @@ pub struct Analysis {
     /// Σ valence electrons − charge.
     pub electrons: usize,
     pub formula: String,
+    /// Point group, operations and frame, unless that stage failed.
+    pub symmetry: Option<Symmetry>,
+    /// Irreps of the central atom's orbitals and of the ligand SALCs.
+    pub symmetry_summary: Option<SymmetrySummary>,
+    /// The extended Hückel solution, unless that stage failed.
+    pub eht: Option<EhtResult>,
+    /// The canonical MOs in ascending energy (empty if the MO stage failed).
+    pub orbitals: Vec<OrbitalSummary>,
+    /// Hybrids of every centre (geometric or maximum-overlap model).
+    pub hybrids: Option<HybridAnalysis>,
+    /// The hybrids of the chosen model as a flat list (for reports and JSON).
+    pub hybrid_entries: Vec<HybridEntry>,
+    /// The localized ladder: hybrid-model bonds and lone pairs, or Pipek–Mezey orbitals.
+    pub localized: Vec<LocalizedSummary>,
+    /// Canonical ↔ localized weights above 1e-4 (degenerate sets summed).
+    pub links: Vec<LinkSummary>,
+    /// Per canonical orbital: energy in the other state of the lone-pair mixing switch
+    /// minus its energy here (eV); empty when there is no lone pair.
+    pub level_shifts: Vec<f64>,
     pub errors: Vec<StageError>,
 }
 
@@ -66,12 +175,142 @@ impl Analysis {
     pub fn run(molecule: &Molecule, settings: &Settings) -> Result<Analysis, AnalysisError> {
         molecule.validate()?;
         let electrons = usize::try_from(molecule.electron_count()).unwrap_or(0);
+        let mut errors = Vec::new();
+        let symmetry = match symmetry::detect(molecule, &settings.symmetry) {
+            Ok(found) => Some(found),
+            Err(error) => {
+                errors.push(StageError {
+                    stage: Stage::Symmetry,
+                    message: error.to_string(),
+                });
+                None
+            }
+        };
+        let symmetry_summary = symmetry
+            .as_ref()
+            .map(|found| symmetry::summarize(found, molecule));
+        let eht = match eht::run(molecule, &settings.eht) {
+            Ok(result) => Some(result),
+            Err(error) => {
+                errors.push(StageError {
+                    stage: Stage::Orbitals,
+                    message: error.to_string(),
+                });
+                None
+            }
+        };
+        let hybrids = eht
+            .as_ref()
+            .map(|solution| crate::hybrid::analyze(molecule, solution, &settings.hybrid));
+        if let Some(found) = &hybrids {
+            for error in &found.errors {
+                errors.push(StageError {
+                    stage: Stage::Hybrids,
+                    message: error.to_string(),
+                });
+            }
+        }
+        let mut eht = eht;
+        let mut level_shifts = Vec::new();
+        if let (Some(solution), Some(found)) = (eht.as_mut(), &hybrids) {
+            match stages::apply_lone_pair_switch(solution, found, settings.lone_pair_mixing) {
+                Ok(shifts) => level_shifts = shifts,
+                Err(message) => errors.push(StageError {
+                    stage: Stage::Orbitals,
+                    message,
+                }),
+            }
+        }
+        let mut orbitals = eht.as_ref().map(orbital_summaries).unwrap_or_default();
+        if let (Some(found), Some(solution)) = (&symmetry, &eht) {
+            let labels = symmetry::label_orbitals(
+                found,
+                molecule,
+                &solution.basis.orbitals,
+                &solution.coefficients,
+                &solution.energies,
+                &solution.overlap,
+                settings.symmetry.numbering,
+            );
+            for (orbital, label) in orbitals.iter_mut().zip(labels) {
+                orbital.irrep = label.irrep.map(|irrep| irrep.to_string());
+                orbital.label = Some(label.text);
+            }
+        }
+        let mut localized = Vec::new();
+        let mut links = Vec::new();
+        let mut hybrid_entries = hybrids
+            .as_ref()
+            .map(stages::hybrid_entries)
+            .unwrap_or_default();
+        if let Some(solution) = &eht {
+            match stages::localized_ladder(molecule, solution, hybrids.as_ref(), &settings.hybrid) {
+                Ok((ladder, pm_hybrids)) => {
+                    localized = ladder;
+                    if settings.hybrid.model == crate::hybrid::HybridModel::Localized {
+                        hybrid_entries = pm_hybrids;
+                    }
+                }
+                Err(message) => errors.push(StageError {
+                    stage: Stage::Localization,
+                    message,
+                }),
+            }
+            match stages::links(solution, &orbitals, &mut localized) {
+                Ok(found) => links = found,
+                Err(message) => errors.push(StageError {
+                    stage: Stage::Links,
+                    message,
+                }),
+            }
+        }
         Ok(Analysis {
             molecule: molecule.clone(),
             settings: settings.clone(),
             electrons,
             formula: molecule.formula(),
-            errors: Vec::new(),
+            symmetry,
+            symmetry_summary,
+            eht,
+            orbitals,
+            hybrids,
+            hybrid_entries,
+            localized,
+            links,
+            level_shifts,
+            errors,
         })
     }
+}
+
+fn orbital_summaries(eht: &EhtResult) -> Vec<OrbitalSummary> {
+    let sc = &eht.overlap * &eht.coefficients;
+    eht.energies
+        .iter()
+        .zip(&eht.occupations)
+        .enumerate()
+        .map(|(index, (&energy_ev, &occupancy))| {
+            let mut composition: Vec<AoShare> = eht
+                .basis
+                .orbitals
+                .iter()
+                .enumerate()
+                .map(|(mu, ao)| AoShare {
+                    atom: ao.atom,
+                    orbital: ao.label(),
+                    share: eht.coefficients[(mu, index)] * sc[(mu, index)],
+                })
+                .filter(|share| share.share.abs() >= 0.01)
+                .collect();
+            composition.sort_by(|a, b| b.share.abs().total_cmp(&a.share.abs()));
+            OrbitalSummary {
+                index,
+                energy_ev,
+                occupancy,
+                irrep: None,
+                label: None,
+                composition,
+            }
+        })
+        .collect()
 }

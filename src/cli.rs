@@ -42,6 +42,32 @@ enum Command {
         #[arg(long, value_enum, default_value_t = Format::Text)]
         format: Format,
     },
+    /// Export the correlation diagram as a standalone SVG file.
+    Export {
+        /// Molecule (.xyz, .mol, .sdf) or project (.diptych.ron) file.
+        file: PathBuf,
+        /// Output file (.svg).
+        #[arg(short, long, value_name = "OUT.svg")]
+        output: PathBuf,
+        /// Titles of the two ladders (delocalized, localized).
+        #[arg(long, num_args = 2, value_names = ["LEFT", "RIGHT"])]
+        names: Option<Vec<String>>,
+        /// Net charge of the molecule (overrides the file's).
+        #[arg(long, allow_hyphen_values = true)]
+        charge: Option<i32>,
+        /// Grey tones only (for print).
+        #[arg(long)]
+        greyscale: bool,
+        /// Width of the drawing in pixels.
+        #[arg(long, default_value_t = 1000.0)]
+        width: f64,
+        /// Height of the drawing in pixels.
+        #[arg(long, default_value_t = 700.0)]
+        height: f64,
+        /// Replace OUT if it exists.
+        #[arg(long)]
+        force: bool,
+    },
 }
 
 #[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
@@ -59,6 +85,25 @@ pub fn main() -> ExitCode {
             charge,
             format,
         }) => analyze(&file, charge, format),
+        Some(Command::Export {
+            file,
+            output,
+            names,
+            charge,
+            greyscale,
+            width,
+            height,
+            force,
+        }) => {
+            let request = ExportRequest {
+                names,
+                greyscale,
+                width,
+                height,
+                force,
+            };
+            export(&file, &output, charge, &request)
+        }
         None => open_window(cli.file, cli.screenshot),
     }
 }
@@ -103,6 +148,77 @@ fn analyze(file: &Path, charge: Option<i32>, format: Format) -> ExitCode {
         Format::Json => report::to_json(&analysis) + "\n",
     };
     print_or_fail(&output)
+}
+
+struct ExportRequest {
+    names: Option<Vec<String>>,
+    greyscale: bool,
+    width: f64,
+    height: f64,
+    force: bool,
+}
+
+fn export(file: &Path, output: &Path, charge: Option<i32>, request: &ExportRequest) -> ExitCode {
+    let valid_size = |v: f64| v.is_finite() && (1.0..=100_000.0).contains(&v);
+    if !valid_size(request.width) || !valid_size(request.height) {
+        eprintln!(
+            "diptych: the size {}×{} is not usable (width and height must be 1 to 100000 pixels)",
+            request.width, request.height
+        );
+        return ExitCode::from(2);
+    }
+    let extension = output
+        .extension()
+        .and_then(|e| e.to_str())
+        .map(str::to_ascii_lowercase);
+    if extension.as_deref() != Some("svg") {
+        eprintln!(
+            "diptych: the output '{}' must end in .svg",
+            output.display()
+        );
+        return ExitCode::from(2);
+    }
+    if output.exists() && !request.force {
+        eprintln!(
+            "diptych: '{}' exists; add --force to replace it",
+            output.display()
+        );
+        return ExitCode::from(2);
+    }
+    let result = open_for_cli(file, charge).and_then(|opened| {
+        let settings = opened.project.settings.clone();
+        run_analysis(&opened, &settings).map(|analysis| (opened, analysis))
+    });
+    let (opened, analysis) = match result {
+        Ok(pair) => pair,
+        Err(code) => return code,
+    };
+    let mut titles = opened.project.titles.clone();
+    if let Some([left, right]) = request.names.as_deref() {
+        titles.delocalized = left.clone();
+        titles.localized = right.clone();
+    }
+    let options = diptych::diagram::DiagramOptions {
+        titles,
+        link_threshold: opened.project.view.link_threshold,
+        ..Default::default()
+    };
+    let diagram = diptych::diagram::diagram_for(&analysis, &options);
+    let svg_options = diptych::diagram::SvgOptions {
+        width: request.width,
+        height: request.height,
+        greyscale: request.greyscale,
+        show_energies: opened.project.view.show_energies,
+        ..Default::default()
+    };
+    let svg = diptych::diagram::to_svg(&diagram, &svg_options);
+    match diptych::chem::io::write_atomically(output, svg.as_bytes()) {
+        Ok(()) => ExitCode::SUCCESS,
+        Err(error) => {
+            eprintln!("diptych: cannot write '{}': {error}", output.display());
+            ExitCode::from(2)
+        }
+    }
 }
 
 fn print_or_fail(output: &str) -> ExitCode {

@@ -4,6 +4,7 @@
 
 pub mod analysis;
 pub mod chem;
+pub mod diagram;
 pub mod eht;
 pub mod hybrid;
 pub mod link;
@@ -11,3 +12,4 @@ pub mod localize;
 pub mod lone_pair_mixing;
 pub mod project;
 pub mod report;
+pub mod symmetry;

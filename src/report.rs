@@ -3,7 +3,9 @@
 
 use serde::Serialize;
 
-use crate::analysis::{Analysis, StageError};
+use crate::analysis::{
+    Analysis, HybridEntry, LinkSummary, LocalizedSummary, OrbitalSummary, StageError,
+};
 
 #[derive(Serialize)]
 struct AtomEntry {
@@ -35,7 +37,23 @@ struct MoleculeEntry {
 #[derive(Serialize)]
 struct JsonReport<'a> {
     molecule: MoleculeEntry,
+    /// Schoenflies symbol ("C3v", "C∞v"); null if detection failed.
+    point_group: Option<String>,
+    symmetry: Option<&'a crate::symmetry::SymmetrySummary>,
     electrons: usize,
+    orbitals: &'a [OrbitalSummary],
+    /// Mulliken charge per atom (null when the MO stage failed).
+    charges: Option<&'a [f64]>,
+    /// Σ occupancy × energy over the occupied orbitals (eV).
+    sum_occupied_energy_ev: Option<f64>,
+    open_shell: Option<bool>,
+    /// The lone-pair mixing switch (DESIGN §4.6) the orbitals were computed with.
+    lone_pair_mixing: bool,
+    /// Per orbital: its energy with the switch flipped minus its energy here (eV).
+    level_shifts: &'a [f64],
+    hybrids: &'a [HybridEntry],
+    localized: &'a [LocalizedSummary],
+    links: &'a [LinkSummary],
     errors: &'a [StageError],
 }
 
@@ -75,7 +93,21 @@ fn molecule_entry(analysis: &Analysis) -> MoleculeEntry {
 pub fn to_json(analysis: &Analysis) -> String {
     let report = JsonReport {
         molecule: molecule_entry(analysis),
+        point_group: analysis
+            .symmetry
+            .as_ref()
+            .map(|found| found.group.to_string()),
+        symmetry: analysis.symmetry_summary.as_ref(),
         electrons: analysis.electrons,
+        orbitals: &analysis.orbitals,
+        charges: analysis.eht.as_ref().map(|eht| eht.charges()),
+        sum_occupied_energy_ev: analysis.eht.as_ref().map(|eht| eht.sum_occupied_energy),
+        open_shell: analysis.eht.as_ref().map(|eht| eht.open_shell),
+        lone_pair_mixing: analysis.settings.lone_pair_mixing,
+        level_shifts: &analysis.level_shifts,
+        hybrids: &analysis.hybrid_entries,
+        localized: &analysis.localized,
+        links: &analysis.links,
         errors: &analysis.errors,
     };
     serde_json::to_string_pretty(&report)
@@ -116,11 +148,195 @@ pub fn to_text(analysis: &Analysis) -> String {
             length
         ));
     }
+    if let Some(summary) = &analysis.symmetry_summary {
+        text.push_str(&symmetry_text(analysis, summary));
+    }
+    if let Some(eht) = &analysis.eht {
+        text.push_str(&orbital_table(analysis, eht));
+    }
+    text.push_str(&hybrid_table(analysis));
+    text.push_str(&localized_table(analysis));
     for error in &analysis.errors {
         text.push_str(&format!(
             "\n{:?} stage failed: {}\n",
             error.stage, error.message
         ));
+    }
+    text
+}
+
+/// The MO table: energy, occupancy, label and the largest AO contributions.
+fn orbital_table(analysis: &Analysis, eht: &crate::eht::EhtResult) -> String {
+    let mut text = String::from("\nMolecular orbitals (extended Hückel, eV)\n");
+    text.push_str("    #   energy   occ  label   largest contributions (Mulliken gross shares)\n");
+    for orbital in analysis.orbitals.iter().rev() {
+        let parts: Vec<String> = orbital
+            .composition
+            .iter()
+            .take(3)
+            .filter(|part| part.share.abs() >= 0.05)
+            .map(|part| {
+                let element = analysis.molecule.atoms[part.atom].element;
+                format!(
+                    "{:.0}% {}{} {}",
+                    100.0 * part.share,
+                    element,
+                    part.atom,
+                    part.orbital
+                )
+            })
+            .collect();
+        text.push_str(&format!(
+            "  {:>3} {:>8.3} {:>5.2}  {:<6}  {}\n",
+            orbital.index,
+            orbital.energy_ev,
+            orbital.occupancy,
+            orbital.label.as_deref().unwrap_or("–"),
+            parts.join(", ")
+        ));
+    }
+    if eht.open_shell {
+        text.push_str("  (open shell: a partly filled degenerate set shares its electrons)\n");
+    }
+    text
+}
+
+fn symmetry_text(analysis: &Analysis, summary: &crate::symmetry::SymmetrySummary) -> String {
+    let mut text = format!(
+        "\nPoint group {} (order {}, tolerance {} Å)\n",
+        summary.point_group, summary.order, summary.tolerance
+    );
+    if let Some(centre) = summary.central_atom {
+        let element = analysis.molecule.atoms[centre].element;
+        for (shell, irreps) in &summary.central_orbitals {
+            text.push_str(&format!(
+                "  central atom {element}{centre} {shell}: {irreps}\n"
+            ));
+        }
+    }
+    if let Some(ligands) = &summary.ligand_sigma {
+        text.push_str(&format!("  ligand σ SALCs: {ligands}\n"));
+    }
+    for note in &summary.notes {
+        text.push_str(&format!("  note: {note}\n"));
+    }
+    text
+}
+
+fn atom_name(analysis: &Analysis, atom: usize) -> String {
+    analysis
+        .molecule
+        .atoms
+        .get(atom)
+        .map_or_else(|| format!("?{atom}"), |a| format!("{}{atom}", a.element))
+}
+
+fn lambda_text(lambda: Option<f64>) -> String {
+    match lambda {
+        Some(value) if value < 1e3 => format!("sp^{value:.2}"),
+        _ => "p (λ → ∞)".into(),
+    }
+}
+
+/// Per centre: partner, λ, %s, hybrid energy, bending.
+fn hybrid_table(analysis: &Analysis) -> String {
+    if analysis.hybrid_entries.is_empty() {
+        return String::new();
+    }
+    let mut text = String::from("\nHybrids (");
+    text.push_str(analysis.hybrid_entries[0].model.as_str());
+    text.push_str(
+        " model)\n  centre  kind       partner  hybrid        %s    energy/eV  bending\n",
+    );
+    for entry in &analysis.hybrid_entries {
+        text.push_str(&format!(
+            "  {:<7} {:<10} {:<8} {:<12} {:>5.1}  {:>9}  {}\n",
+            atom_name(analysis, entry.center),
+            entry.kind,
+            entry.partner.map_or("–".into(), |p| atom_name(analysis, p)),
+            lambda_text(entry.lambda),
+            entry.s_percent,
+            entry.energy_ev.map_or("–".into(), |e| format!("{e:.3}")),
+            entry
+                .bending_degrees
+                .map_or("–".into(), |b| format!("{b:.1}°")),
+        ));
+    }
+    text
+}
+
+/// Each localized orbital with its canonical constituents, then each canonical level with
+/// the localized orbitals it feeds.
+fn localized_table(analysis: &Analysis) -> String {
+    if analysis.localized.is_empty() {
+        return String::new();
+    }
+    let name = |canonical: usize| {
+        analysis
+            .orbitals
+            .get(canonical)
+            .and_then(|o| o.label.clone())
+            .unwrap_or_else(|| format!("ψ{}", canonical + 1))
+    };
+    let mut text =
+        String::from("\nLocalized orbitals and their canonical constituents (weights)\n");
+    for (k, orbital) in analysis.localized.iter().enumerate() {
+        let mut parts: Vec<&LinkSummary> = analysis
+            .links
+            .iter()
+            .filter(|l| l.localized == k && l.weight >= 0.01)
+            .collect();
+        parts.sort_by(|a, b| b.weight.total_cmp(&a.weight));
+        let list: Vec<String> = parts
+            .iter()
+            .map(|l| format!("{} {:.2}", name(l.canonical), l.weight))
+            .collect();
+        let atoms: Vec<String> = orbital
+            .atoms
+            .iter()
+            .map(|&a| atom_name(analysis, a))
+            .collect();
+        text.push_str(&format!(
+            "  {:<10} {:<8} {:>8.3} eV  occ {:.0}  captured {:.2}:  {}\n",
+            orbital.label,
+            atoms.join("–"),
+            orbital.energy_ev,
+            orbital.occupancy,
+            orbital.captured,
+            list.join(", ")
+        ));
+    }
+    text.push_str("\nCanonical levels and the localized orbitals they feed (weights)\n");
+    let mut seen = Vec::new();
+    for link in &analysis.links {
+        if seen.contains(&link.canonical) {
+            continue;
+        }
+        seen.push(link.canonical);
+    }
+    seen.sort_unstable();
+    for canonical in seen {
+        let mut parts: Vec<&LinkSummary> = analysis
+            .links
+            .iter()
+            .filter(|l| l.canonical == canonical && l.weight >= 0.01)
+            .collect();
+        parts.sort_by(|a, b| b.weight.total_cmp(&a.weight));
+        let list: Vec<String> = parts
+            .iter()
+            .map(|l| {
+                let orbital = &analysis.localized[l.localized];
+                let atoms: Vec<String> = orbital
+                    .atoms
+                    .iter()
+                    .map(|&a| atom_name(analysis, a))
+                    .collect();
+                format!("{}[{}] {:.2}", orbital.label, atoms.join("–"), l.weight)
+            })
+            .collect();
+        if !list.is_empty() {
+            text.push_str(&format!("  {:<8} {}\n", name(canonical), list.join(", ")));
+        }
     }
     text
 }

@@ -166,3 +166,89 @@ fn project_file_round_trips_through_the_cli() {
     let json: serde_json::Value = serde_json::from_slice(&output.stdout).unwrap();
     assert_eq!(json["electrons"], 8);
 }
+
+/// Writes an XYZ file into `folder` and returns its path.
+fn write_xyz(folder: &Path, name: &str, atoms: &[(&str, [f64; 3])]) -> PathBuf {
+    let mut text = format!("{}\n{name}\n", atoms.len());
+    for (symbol, [x, y, z]) in atoms {
+        text.push_str(&format!("{symbol} {x:.6} {y:.6} {z:.6}\n"));
+    }
+    let path = folder.join(format!("{name}.xyz"));
+    std::fs::write(&path, text).unwrap();
+    path
+}
+
+fn point_group_of(path: &Path) -> String {
+    let output = diptych()
+        .args(["analyze", &path.to_string_lossy(), "--format", "json"])
+        .output()
+        .unwrap();
+    assert!(
+        output.status.success(),
+        "{}",
+        String::from_utf8_lossy(&output.stderr)
+    );
+    let json: serde_json::Value = serde_json::from_slice(&output.stdout).unwrap();
+    json["point_group"].as_str().unwrap_or("null").to_string()
+}
+
+#[test]
+fn point_groups_of_textbook_molecules() {
+    // Textbook assignments (Cotton, Chemical Applications of Group Theory; from memory).
+    assert_eq!(
+        point_group_of(&repository().join("demo_molecules/ammonia.xyz")),
+        "C3v"
+    );
+    assert_eq!(
+        point_group_of(&repository().join("demo_molecules/hydrogen_cyanide.xyz")),
+        "C∞v"
+    );
+    let folder = tempfile::tempdir().unwrap();
+    // Benzene: C–C 1.39 Å, C–H 1.09 Å.
+    let mut benzene = Vec::new();
+    for k in 0..6 {
+        let phi = std::f64::consts::PI / 3.0 * k as f64;
+        benzene.push(("C", [1.39 * phi.cos(), 1.39 * phi.sin(), 0.0]));
+        benzene.push(("H", [2.48 * phi.cos(), 2.48 * phi.sin(), 0.0]));
+    }
+    assert_eq!(
+        point_group_of(&write_xyz(folder.path(), "benzene", &benzene)),
+        "D6h"
+    );
+    // Ethane twisted 30° away from staggered (neither eclipsed D3h nor staggered D3d): D3.
+    let mut ethane = vec![("C", [0.0, 0.0, 0.765]), ("C", [0.0, 0.0, -0.765])];
+    for k in 0..3 {
+        let top = 2.0 * std::f64::consts::PI * k as f64 / 3.0;
+        let bottom = top + 30f64.to_radians();
+        ethane.push(("H", [1.02 * top.cos(), 1.02 * top.sin(), 1.16]));
+        ethane.push(("H", [1.02 * bottom.cos(), 1.02 * bottom.sin(), -1.16]));
+    }
+    assert_eq!(
+        point_group_of(&write_xyz(folder.path(), "ethane", &ethane)),
+        "D3"
+    );
+}
+
+#[test]
+fn ammonia_json_lists_seven_labelled_valence_orbitals() {
+    let output = diptych()
+        .args(["analyze", "demo_molecules/ammonia.xyz", "--format", "json"])
+        .current_dir(repository())
+        .output()
+        .unwrap();
+    let json: serde_json::Value = serde_json::from_slice(&output.stdout).unwrap();
+    let orbitals = json["orbitals"].as_array().unwrap();
+    assert_eq!(orbitals.len(), 7);
+    let electrons: f64 = orbitals
+        .iter()
+        .map(|o| o["occupancy"].as_f64().unwrap())
+        .sum();
+    assert!((electrons - 8.0).abs() < 1e-12);
+    let labels: Vec<&str> = orbitals
+        .iter()
+        .map(|o| o["label"].as_str().unwrap())
+        .collect();
+    // Core-inclusive numbering (N 1s is 1a1); photoelectron order 2a1 < 1e < 3a1 (from memory).
+    assert_eq!(&labels[..4], &["2a1", "1e", "1e", "3a1"]);
+    assert_eq!(orbitals[3]["irrep"], "a1");
+}

@@ -90,6 +90,15 @@ pub fn handle_shortcuts(ui: &egui::Ui, state: &mut AppState, dialogs: &Dialogs) 
     if ui.input_mut(|input| input.consume_shortcut(&open)) {
         dialogs.ask_open();
     }
+    let redo_shift = KeyboardShortcut::new(Modifiers::COMMAND | Modifiers::SHIFT, Key::Z);
+    let redo_y = KeyboardShortcut::new(Modifiers::COMMAND, Key::Y);
+    let undo = KeyboardShortcut::new(Modifiers::COMMAND, Key::Z);
+    if ui.input_mut(|input| input.consume_shortcut(&redo_shift) || input.consume_shortcut(&redo_y))
+    {
+        state.redo();
+    } else if ui.input_mut(|input| input.consume_shortcut(&undo)) {
+        state.undo();
+    }
 }
 
 /// File and View menus.
@@ -109,6 +118,34 @@ pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
                 ui.close();
             }
         });
+        ui.menu_button("Edit", |ui| {
+            if ui
+                .add_enabled(
+                    state.history.can_undo(),
+                    egui::Button::new("Undo  (Ctrl+Z)"),
+                )
+                .clicked()
+            {
+                state.undo();
+                ui.close();
+            }
+            if ui
+                .add_enabled(
+                    state.history.can_redo(),
+                    egui::Button::new("Redo  (Ctrl+Shift+Z)"),
+                )
+                .clicked()
+            {
+                state.redo();
+                ui.close();
+            }
+        });
+        ui.menu_button("Settings", |ui| {
+            if ui.button("Method options…").clicked() {
+                state.settings_open = true;
+                ui.close();
+            }
+        });
         ui.menu_button("View", |ui| {
             ui.checkbox(&mut state.camera.show_labels, "Atom labels");
             if ui
@@ -118,7 +155,7 @@ pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
                 state.dirty = true;
             }
             if ui.button("Reset view").clicked() {
-                state.camera = Default::default();
+                state.camera = super::structure_view::Camera::facing(&state.project.molecule);
                 ui.close();
             }
         });

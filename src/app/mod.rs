@@ -1,13 +1,20 @@
-//! The eframe desktop shell (DESIGN §2): menu bar, Structure panel with the molecule's
-//! details, status bar. It renders results of `Analysis::run` and computes no chemistry.
+//! The eframe desktop shell (DESIGN §2): menu bar, Structure panel, Diagram panel,
+//! Inspector, status bar. It renders results of `Analysis::run` and computes no chemistry.
 
+mod diagram_view;
+mod history;
+mod inspector;
 mod menus;
 mod molecule_panel;
 mod screenshot;
+mod settings_window;
 mod state;
 mod structure_view;
 mod theme;
 mod worker;
+
+#[cfg(test)]
+mod tests;
 
 use std::path::PathBuf;
 
@@ -44,6 +51,8 @@ impl DiptychApp {
     fn frame_ui(&mut self, ui: &mut egui::Ui) {
         self.state.receive_results();
         self.dialogs.apply(&mut self.state);
+        // Every edit of this frame is compared against this copy (undo, recompute).
+        let before = self.state.project.clone();
         menus::handle_shortcuts(ui, &mut self.state, &self.dialogs);
         let visuals = if self.state.project.view.dark_theme {
             egui::Visuals::dark()
@@ -70,33 +79,96 @@ impl DiptychApp {
                 }
             });
         });
-        egui::Panel::right("molecule")
+        egui::Panel::left("structure")
+            .default_size(380.0)
+            .resizable(true)
+            .show(ui, |ui| self.structure_panel(ui));
+        egui::Panel::right("inspector")
             .default_size(300.0)
             .resizable(true)
             .show(ui, |ui| {
-                egui::ScrollArea::vertical().show(ui, |ui| molecule_panel::show(ui, &self.state));
+                ui.heading("Inspector");
+                egui::ScrollArea::vertical().show(ui, |ui| inspector::show(ui, &mut self.state));
             });
-        egui::CentralPanel::default_margins().show(ui, |ui| {
-            ui.heading("Structure");
-            let events = structure_view::show(
-                ui,
-                &self.state.project.molecule,
-                &mut self.state.camera,
-                self.state.selected_atom,
-            );
-            if let Some(atom) = events.clicked_atom {
-                self.state.selected_atom = Some(atom);
-            } else if events.clicked_background {
-                self.state.selected_atom = None;
-            }
-        });
+        egui::CentralPanel::default_margins().show(ui, |ui| self.diagram_panel(ui));
+        settings_window::show(
+            ui.ctx(),
+            &mut self.state.settings_open,
+            &mut self.state.project.settings,
+        );
         self.error_dialog(ui);
+
+        let now = ui.input(|input| input.time);
+        self.state.after_frame(before, now);
 
         let title = self.state.title();
         if title != self.last_title {
             ui.ctx()
                 .send_viewport_cmd(egui::ViewportCommand::Title(title.clone()));
             self.last_title = title;
+        }
+    }
+
+    fn structure_panel(&mut self, ui: &mut egui::Ui) {
+        ui.heading("Structure");
+        let highlight = self.state.atom_weights_of_focused_level();
+        let events = structure_view::show(
+            ui,
+            &self.state.project.molecule,
+            &mut self.state.camera,
+            self.state.selected_atom,
+            &highlight,
+        );
+        if let Some(atom) = events.clicked_atom {
+            self.state.selected_atom = Some(atom);
+        } else if events.clicked_background {
+            self.state.selected_atom = None;
+        }
+    }
+
+    fn diagram_panel(&mut self, ui: &mut egui::Ui) {
+        ui.horizontal_wrapped(|ui| {
+            ui.heading("Diagram");
+            ui.add_space(8.0);
+            let titles = &mut self.state.project.titles;
+            let left_label = ui.label("Left title");
+            ui.add(egui::TextEdit::singleline(&mut titles.delocalized).desired_width(160.0))
+                .labelled_by(left_label.id);
+            let right_label = ui.label("Right title");
+            ui.add(egui::TextEdit::singleline(&mut titles.localized).desired_width(160.0))
+                .labelled_by(right_label.id);
+        });
+        ui.horizontal_wrapped(|ui| {
+            ui.checkbox(
+                &mut self.state.project.settings.lone_pair_mixing,
+                "Lone-pair mixing",
+            )
+            .on_hover_text(
+                "On: the full solution. Off: each lone pair's p orbital is held non-bonding \
+                     (the first-order diagram). Dotted marks show where levels go when flipped.",
+            );
+            ui.checkbox(&mut self.state.project.view.show_energies, "Energies");
+            ui.add(
+                egui::Slider::new(&mut self.state.project.view.link_threshold, 0.0..=0.5)
+                    .text("hide lines below this weight"),
+            );
+        });
+        let show_energies = self.state.project.view.show_energies;
+        let Some(diagram) = &self.state.diagram else {
+            ui.centered_and_justified(|ui| {
+                ui.label(match &self.state.analysis_error {
+                    Some(error) => format!("No diagram: {error}"),
+                    None => "Computing…".to_string(),
+                })
+            });
+            return;
+        };
+        let events = diagram_view::show(ui, diagram, self.state.selected_level, show_energies);
+        self.state.hovered_level = events.hovered;
+        if let Some(level) = events.clicked {
+            self.state.selected_level = Some(level);
+        } else if events.clicked_background {
+            self.state.selected_level = None;
         }
     }
 

@@ -1,13 +1,13 @@
-//! The side panel beside the 3D view: the molecule's summary from the last analysis and
-//! the selected atom's details (position, neighbours, bond lengths and angles).
+//! Parts of the Inspector about the molecule: its summary from the last analysis and the
+//! selected atom's details (position, neighbours, bond lengths and angles).
 
 use diptych::chem::Molecule;
 use eframe::egui;
 
 use super::state::AppState;
 
-pub fn show(ui: &mut egui::Ui, state: &AppState) {
-    let molecule = &state.project.molecule;
+/// Name, formula, charge (editable), electron count.
+pub fn summary(ui: &mut egui::Ui, state: &mut AppState) {
     ui.heading("Molecule");
     match &state.analysis {
         Some(analysis) => {
@@ -18,8 +18,9 @@ pub fn show(ui: &mut egui::Ui, state: &AppState) {
                 ui.label("Formula");
                 ui.label(&analysis.formula);
                 ui.end_row();
-                ui.label("Charge");
-                ui.label(analysis.molecule.charge.to_string());
+                let label = ui.label("Charge");
+                ui.add(egui::DragValue::new(&mut state.project.molecule.charge).range(-8..=8))
+                    .labelled_by(label.id);
                 ui.end_row();
                 ui.label("Valence electrons");
                 ui.label(analysis.electrons.to_string());
@@ -37,11 +38,15 @@ pub fn show(ui: &mut egui::Ui, state: &AppState) {
             ui.label("Analysing…");
         }
     }
-    ui.separator();
+}
+
+/// The selected atom's position, bonds and angles, or a hint.
+pub fn selected_atom(ui: &mut egui::Ui, state: &AppState) {
+    let molecule = &state.project.molecule;
     match state.selected_atom.filter(|&index| index < molecule.len()) {
         Some(index) => atom_details(ui, molecule, index),
         None => {
-            ui.weak("Click an atom to see its details. Drag to rotate, scroll to zoom.");
+            ui.weak("Click an atom or a level to see its details. Drag to rotate, scroll to zoom.");
         }
     }
 }

@@ -7,9 +7,12 @@ use std::sync::Arc;
 use diptych::analysis::Analysis;
 use diptych::chem::Molecule;
 use diptych::chem::io::xyz::parse_xyz;
+use diptych::diagram::{Diagram, DiagramOptions, diagram_for};
 use diptych::project::{Opened, Project, open_path};
 use eframe::egui;
 
+use super::diagram_view::LevelRef;
+use super::history::{Change, History, classify};
 use super::structure_view::Camera;
 use super::worker::AnalysisWorker;
 
@@ -29,7 +32,18 @@ pub struct AppState {
     generation: u64,
     worker: AnalysisWorker,
     pub selected_atom: Option<usize>,
+    /// The level selected in the Diagram for the Inspector.
+    pub selected_level: Option<LevelRef>,
+    /// The level under the pointer in the Diagram (last frame).
+    pub hovered_level: Option<LevelRef>,
+    /// The diagram of `analysis` with the current titles and threshold.
+    pub diagram: Option<Diagram>,
     pub camera: Camera,
+    pub history: History,
+    /// Whether the Settings window is shown.
+    pub settings_open: bool,
+    /// Set by undo/redo: this frame's change is a history step, not a new edit.
+    navigated_history: bool,
     /// One-line message for the status bar.
     pub status: String,
     /// An error to show in a dialog until dismissed.
@@ -73,10 +87,17 @@ impl AppState {
             generation: 0,
             worker: AnalysisWorker::start(context),
             selected_atom: None,
+            selected_level: None,
+            hovered_level: None,
+            diagram: None,
             camera: Camera::default(),
+            history: History::default(),
+            settings_open: false,
+            navigated_history: false,
             status,
             error_dialog: None,
         };
+        state.camera = Camera::facing(&state.project.molecule);
         state.document_changed();
         state.dirty = false;
         state
@@ -108,6 +129,7 @@ impl AppState {
                 Ok(analysis) => {
                     self.analysis = Some(analysis);
                     self.analysis_error = None;
+                    self.rebuild_diagram();
                 }
                 Err(message) => {
                     // Keep the last good analysis on screen; say why it is not current.
@@ -116,6 +138,100 @@ impl AppState {
             }
             self.analysed_generation = outcome.generation;
         }
+    }
+
+    /// Per-atom weights of the hovered (else selected) level, for the Structure panel:
+    /// Mulliken atom shares of a canonical MO, equal shares over a localized orbital's
+    /// atoms. Read from the analysis, not computed here.
+    pub fn atom_weights_of_focused_level(&self) -> Vec<(usize, f64)> {
+        let (Some(level), Some(analysis)) =
+            (self.hovered_level.or(self.selected_level), &self.analysis)
+        else {
+            return Vec::new();
+        };
+        if level.ladder == 0 {
+            let mut weights: Vec<(usize, f64)> = Vec::new();
+            if let Some(orbital) = analysis.orbitals.get(level.key) {
+                for part in &orbital.composition {
+                    match weights.iter_mut().find(|(atom, _)| *atom == part.atom) {
+                        Some((_, total)) => *total += part.share,
+                        None => weights.push((part.atom, part.share)),
+                    }
+                }
+            }
+            weights.retain(|(_, w)| *w > 0.05);
+            weights
+        } else {
+            level
+                .key
+                .checked_sub(diptych::diagram::build::LOCALIZED_KEY_OFFSET)
+                .and_then(|n| analysis.localized.get(n))
+                .map(|orbital| {
+                    let share = 1.0 / orbital.atoms.len().max(1) as f64;
+                    orbital.atoms.iter().map(|&atom| (atom, share)).collect()
+                })
+                .unwrap_or_default()
+        }
+    }
+
+    /// Call once per frame with the document as it was before the frame's UI ran: records
+    /// an undo step and schedules the analysis or the layout as the change requires.
+    pub fn after_frame(&mut self, before: Project, now: f64) {
+        if std::mem::take(&mut self.navigated_history) {
+            return;
+        }
+        let change = classify(&before, &self.project);
+        if change == Change::None {
+            return;
+        }
+        self.history.record(before, &self.project, now);
+        self.apply_change(change);
+    }
+
+    fn apply_change(&mut self, change: Change) {
+        match change {
+            Change::None => {}
+            Change::Presentation => {
+                self.dirty = true;
+                self.rebuild_diagram();
+            }
+            Change::Document => self.document_changed(),
+        }
+    }
+
+    /// Steps back one edit.
+    pub fn undo(&mut self) {
+        if let Some(previous) = self.history.undo(&self.project) {
+            let change = classify(&previous, &self.project);
+            self.project = previous;
+            self.apply_change(change);
+            self.navigated_history = true;
+            self.status = "Undone".into();
+        }
+    }
+
+    /// Steps forward one undone edit.
+    pub fn redo(&mut self) {
+        if let Some(next) = self.history.redo(&self.project) {
+            let change = classify(&next, &self.project);
+            self.project = next;
+            self.apply_change(change);
+            self.navigated_history = true;
+            self.status = "Redone".into();
+        }
+    }
+
+    /// Lays the diagram out again (after a new analysis, or new titles or threshold).
+    pub fn rebuild_diagram(&mut self) {
+        let options = DiagramOptions {
+            titles: self.project.titles.clone(),
+            link_threshold: self.project.view.link_threshold,
+            ..DiagramOptions::default()
+        };
+        self.diagram = self
+            .analysis
+            .as_ref()
+            .map(|analysis| diagram_for(analysis, &options));
     }
 
     /// Replaces the document with a file's contents; on failure the current document stays.
@@ -129,8 +245,10 @@ impl AppState {
                     opened.notices.join("; ")
                 };
                 self.path = Some(path);
+                self.history.clear();
                 self.selected_atom = None;
-                self.camera = Camera::default();
+                self.selected_level = None;
+                self.camera = Camera::facing(&self.project.molecule);
                 self.document_changed();
                 self.dirty = false;
             }

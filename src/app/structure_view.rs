@@ -28,6 +28,32 @@ impl Default for Camera {
     }
 }
 
+impl Camera {
+    /// A view looking along the molecule's axis of largest moment of inertia (so that a
+    /// planar molecule shows its face), tilted a little to show depth.
+    pub fn facing(molecule: &Molecule) -> Camera {
+        let centre = geometric_centre(molecule);
+        let mut inertia = nalgebra::Matrix3::<f64>::zeros();
+        for atom in &molecule.atoms {
+            let r = atom.position - centre;
+            let m = atom.element.mass();
+            inertia += (nalgebra::Matrix3::identity() * r.norm_squared() - r * r.transpose()) * m;
+        }
+        let eigen = inertia.symmetric_eigen();
+        let mut order = [0usize, 1, 2];
+        order.sort_by(|&a, &b| eigen.eigenvalues[a].total_cmp(&eigen.eigenvalues[b]));
+        let x = eigen.eigenvectors.column(order[0]).into_owned();
+        let y = eigen.eigenvectors.column(order[1]).into_owned();
+        let z = x.cross(&y);
+        let rows = nalgebra::Matrix3::from_rows(&[x.transpose(), y.transpose(), z.transpose()]);
+        let base = Rotation3::from_matrix_unchecked(rows);
+        Camera {
+            rotation: Rotation3::from_euler_angles(-0.55, 0.25, 0.0) * base,
+            ..Camera::default()
+        }
+    }
+}
+
 /// What the user did in the view this frame.
 #[derive(Default)]
 pub struct ViewEvents {
@@ -57,8 +83,10 @@ pub fn show(
     molecule: &Molecule,
     camera: &mut Camera,
     selected: Option<usize>,
+    halo_weights: &[(usize, f64)],
 ) -> ViewEvents {
-    let size = ui.available_size().max(Vec2::splat(80.0));
+    let visible = ui.available_rect_before_wrap().intersect(ui.clip_rect());
+    let size = visible.size().max(Vec2::splat(80.0));
     let (response, painter) = ui.allocate_painter(size, Sense::click_and_drag());
     let rect = response.rect;
     let mut events = ViewEvents::default();
@@ -153,6 +181,21 @@ pub fn show(
                     highlight,
                 );
                 painter.circle_stroke(p.screen, p.radius, Stroke::new(1.2, outline));
+                if let Some(&(_, weight)) = halo_weights.iter().find(|(atom, _)| *atom == index) {
+                    // The hovered orbital's share on this atom: a translucent halo.
+                    let alpha = (40.0 + 180.0 * weight.clamp(0.0, 1.0)) as u8;
+                    painter.circle_filled(
+                        p.screen,
+                        p.radius * (1.0 + 0.6 * weight.clamp(0.0, 1.0) as f32),
+                        Color32::from_rgba_unmultiplied(
+                            ACCENT.r(),
+                            ACCENT.g(),
+                            ACCENT.b(),
+                            alpha / 2,
+                        ),
+                    );
+                    painter.circle_stroke(p.screen, p.radius + 2.0, Stroke::new(2.0, ACCENT));
+                }
                 if selected == Some(index) {
                     painter.circle_stroke(p.screen, p.radius + 4.0, Stroke::new(2.5, ACCENT));
                 }

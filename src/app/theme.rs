@@ -59,3 +59,8 @@ pub fn mix(colour: Color32, other: Color32, amount: f32) -> Color32 {
 
 /// Selection and hover accent (a deep teal).
 pub const ACCENT: Color32 = Color32::from_rgb(0, 128, 128);
+
+/// Bar colour of a level: the library's diagram palette, or `ink`.
+pub fn level_colour(label: &str, ink: Color32) -> Color32 {
+    diptych::diagram::style::level_rgb(label).map_or(ink, |[r, g, b]| Color32::from_rgb(r, g, b))
+}

@@ -197,7 +197,7 @@ fn least_squares_lambdas(count: usize, cosine: &dyn Fn(usize, usize) -> f64) -> 
     x.iter().map(|v| v * v).collect()
 }
 
-fn gram_schmidt(vectors: &[Vector4<f64>]) -> Vec<Vector4<f64>> {
+pub(crate) fn gram_schmidt(vectors: &[Vector4<f64>]) -> Vec<Vector4<f64>> {
     let mut basis: Vec<Vector4<f64>> = Vec::new();
     for v in vectors {
         let mut w = *v;
@@ -215,7 +215,7 @@ fn gram_schmidt(vectors: &[Vector4<f64>]) -> Vec<Vector4<f64>> {
 /// the eigenvectors of the projector I − Σ t tᵀ with eigenvalue 1. (Gram–Schmidt on the
 /// unit axes is unstable here: an axis almost inside the taken space leaves a tiny,
 /// noise-dominated remainder.)
-fn orthonormal_complement(taken: &[Vector4<f64>]) -> Vec<Vector4<f64>> {
+pub(crate) fn orthonormal_complement(taken: &[Vector4<f64>]) -> Vec<Vector4<f64>> {
     let mut projector = Matrix4::identity();
     for t in taken {
         projector -= t * t.transpose();
@@ -229,7 +229,7 @@ fn orthonormal_complement(taken: &[Vector4<f64>]) -> Vec<Vector4<f64>> {
 
 /// Lone pairs from the free subspace: the σ-type one carries all of the subspace's s
 /// character and points away from the bonds; the rest are pure p (or mixed equally).
-fn lone_pair_hybrids(
+pub(crate) fn lone_pair_hybrids(
     free: &[Vector4<f64>],
     count: usize,
     bond_units: &[Vector3<f64>],

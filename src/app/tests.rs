@@ -1,0 +1,210 @@
+//! GUI tests without a display: egui_kittest drives the real app state and frame code.
+
+use std::time::{Duration, Instant};
+
+use eframe::egui;
+use egui_kittest::Harness;
+use egui_kittest::kittest::Queryable;
+
+use super::DiptychApp;
+use super::diagram_view::LevelRef;
+
+fn harness() -> Harness<'static, DiptychApp> {
+    let app = DiptychApp::new(egui::Context::default(), None, None);
+    Harness::builder()
+        .with_size(egui::vec2(1400.0, 900.0))
+        .build_ui_state(|ui, app: &mut DiptychApp| app.frame_ui(ui), app)
+}
+
+/// Steps frames until the worker's analysis of the current document has arrived.
+fn wait_for_analysis(harness: &mut Harness<'static, DiptychApp>) {
+    let start = Instant::now();
+    loop {
+        harness.step();
+        if !harness.state().state.is_computing() && harness.state().state.analysis.is_some() {
+            harness.step();
+            return;
+        }
+        assert!(
+            start.elapsed() < Duration::from_secs(30),
+            "analysis never arrived"
+        );
+        std::thread::sleep(Duration::from_millis(5));
+    }
+}
+
+#[test]
+fn starts_on_ammonia_with_its_labelled_diagram() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    let app = harness.state();
+    assert_eq!(app.state.project.molecule.formula(), "H3N");
+    let diagram = app.state.diagram.as_ref().expect("diagram laid out");
+    let labels: Vec<&str> = diagram.ladders[0]
+        .levels
+        .iter()
+        .map(|l| l.label.as_str())
+        .collect();
+    assert!(
+        labels.contains(&"3a1") && labels.contains(&"1e"),
+        "{labels:?}"
+    );
+    harness.get_by_label("ammonia");
+    harness.get_by_label("8");
+}
+
+#[test]
+fn renaming_a_ladder_retitles_the_diagram_and_marks_unsaved() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    harness.get_by_label("Left title").click();
+    harness.run_steps(2);
+    harness.get_by_label("Left title").type_text(" — NH3");
+    harness.run_steps(3);
+    let app = harness.state();
+    let title = &app.state.project.titles.delocalized;
+    assert!(title.contains(" — NH3"), "{title}");
+    assert_eq!(
+        app.state.diagram.as_ref().unwrap().ladders[0].title,
+        app.state.project.titles.delocalized
+    );
+    assert!(app.state.dirty);
+    assert!(
+        app.state.title().ends_with('•'),
+        "title bar marks unsaved changes"
+    );
+}
+
+#[test]
+fn energies_checkbox_is_a_document_option() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    assert!(harness.state().state.project.view.show_energies);
+    harness.get_by_label("Energies").click();
+    harness.run_steps(2);
+    assert!(!harness.state().state.project.view.show_energies);
+}
+
+#[test]
+fn selecting_a_level_shows_its_composition() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    // The HOMO of ammonia (index 3, the 3a1 lone-pair level).
+    harness.state_mut().state.selected_level = Some(LevelRef { ladder: 0, key: 3 });
+    harness.run_steps(2);
+    harness.get_by_label("Orbital 3a1");
+    harness.get_by_label_contains("Composition");
+    // Nitrogen carries most of the lone pair.
+    let nitrogen_share = harness.get_by_label("N0").rect();
+    assert!(nitrogen_share.width() > 0.0);
+}
+
+#[test]
+fn a_damaged_file_shows_an_error_and_keeps_the_document() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    let folder = tempfile::tempdir().unwrap();
+    let bad = folder.path().join("broken.xyz");
+    std::fs::write(&bad, "3\nbroken\nN 0 0 0\nH 0 zero 0\n").unwrap();
+    harness.state_mut().state.open(bad);
+    harness.run_steps(2);
+    assert_eq!(harness.state().state.project.molecule.name, "ammonia");
+    harness.get_by_label("Problem");
+    harness.get_by_label_contains("line 4: expected a number for the y coordinate");
+    harness.get_by_label("OK").click();
+    harness.run_steps(2);
+    assert!(harness.state().state.error_dialog.is_none());
+}
+
+#[test]
+fn a_saved_project_reopens_identically() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    let folder = tempfile::tempdir().unwrap();
+    let path = folder.path().join("nh3");
+    {
+        let state = &mut harness.state_mut().state;
+        state.project.titles.localized = "Lewis & <donor> pairs".into();
+        state.project.view.link_threshold = 0.2;
+        state.save_to(path.clone());
+        assert!(!state.dirty);
+    }
+    let saved = harness.state().state.project.clone();
+    let reopened_path = folder.path().join("nh3.diptych.ron");
+    assert!(reopened_path.exists(), "the project extension is added");
+    let mut other = self::harness();
+    wait_for_analysis(&mut other);
+    other.state_mut().state.open(reopened_path);
+    wait_for_analysis(&mut other);
+    assert_eq!(other.state().state.project, saved);
+}
+
+#[test]
+fn clicking_an_atom_selects_it() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    harness.state_mut().state.selected_atom = Some(0);
+    harness.run_steps(2);
+    harness.get_by_label("Atom 0: nitrogen (N)");
+    harness.get_by_label_contains("Angles at this atom");
+}
+
+#[test]
+fn undo_and_redo_walk_through_edits() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    let original = harness.state().state.project.clone();
+    harness.get_by_label("Energies").click();
+    harness.run_steps(2);
+    harness.get_by_label("Charge").click();
+    harness.run_steps(1);
+    harness.get_by_label("Charge").type_text("1");
+    harness.key_press(egui::Key::Enter);
+    harness.run_steps(1);
+    // Click elsewhere so the field lets go of the keyboard.
+    harness.get_by_label("Inspector").click();
+    harness.run_steps(2);
+    wait_for_analysis(&mut harness);
+    assert_eq!(
+        harness.state().state.analysis.as_ref().unwrap().electrons,
+        7,
+        "charge change re-analysed"
+    );
+    harness.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    harness.run_steps(1);
+    wait_for_analysis(&mut harness);
+    assert_eq!(harness.state().state.project.molecule.charge, 0);
+    assert_eq!(
+        harness.state().state.analysis.as_ref().unwrap().electrons,
+        8
+    );
+    harness.state_mut().state.undo();
+    harness.run_steps(2);
+    assert_eq!(harness.state().state.project, original);
+    harness.state_mut().state.redo();
+    harness.run_steps(2);
+    assert!(!harness.state().state.project.view.show_energies);
+}
+
+#[test]
+fn valence_only_numbering_relabels_the_diagram() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    harness.state_mut().state.settings_open = true;
+    harness.run_steps(2);
+    harness.get_by_label("valence only (1a1, 2a1 …)").click();
+    harness.run_steps(1);
+    wait_for_analysis(&mut harness);
+    let diagram = harness.state().state.diagram.as_ref().unwrap();
+    let labels: Vec<&str> = diagram.ladders[0]
+        .levels
+        .iter()
+        .map(|l| l.label.as_str())
+        .collect();
+    // Valence-only numbering: ammonia's lone pair is 2a1 (core-inclusive 3a1).
+    assert!(
+        labels.contains(&"2a1") && labels.contains(&"1a1"),
+        "{labels:?}"
+    );
+    assert!(harness.state().state.history.can_undo());
+}

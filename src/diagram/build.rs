@@ -1,0 +1,126 @@
+//! Turns an `Analysis` into the two ladder inputs and links of the layout: canonical MOs
+//! (degenerate sets grouped) on the left, localized orbitals on the right, correlation
+//! lines above the user's weight threshold.
+
+use crate::analysis::Analysis;
+use crate::project::LadderTitles;
+
+use super::layout::{Diagram, LadderInput, LevelInput, LinkInput, layout};
+
+/// Orbitals closer than this (eV) are drawn as one degenerate set when symmetry gives
+/// no grouping (common practice, no source).
+pub const DEGENERACY_EV: f64 = 1e-3;
+
+/// What the user chose to show.
+#[derive(Clone, Debug, PartialEq)]
+pub struct DiagramOptions {
+    pub titles: LadderTitles,
+    /// Correlation lines with a smaller weight are left out.
+    pub link_threshold: f64,
+    /// Virtual levels up to this many eV above the LUMO are shown.
+    pub virtual_span_ev: f64,
+}
+
+impl Default for DiagramOptions {
+    fn default() -> Self {
+        DiagramOptions {
+            titles: LadderTitles::default(),
+            link_threshold: 0.05,
+            virtual_span_ev: 8.0,
+        }
+    }
+}
+
+/// Offset that keeps localized keys apart from canonical ones.
+pub const LOCALIZED_KEY_OFFSET: usize = 1_000_000;
+
+/// The diagram of an analysis.
+pub fn diagram_for(analysis: &Analysis, options: &DiagramOptions) -> Diagram {
+    let mut group_of = Vec::with_capacity(analysis.orbitals.len());
+    let mut group = 0;
+    for (n, orbital) in analysis.orbitals.iter().enumerate() {
+        if n > 0 && (orbital.energy_ev - analysis.orbitals[n - 1].energy_ev).abs() > DEGENERACY_EV {
+            group += 1;
+        }
+        group_of.push(group);
+    }
+    let delocalized = LadderInput {
+        title: options.titles.delocalized.clone(),
+        levels: analysis
+            .orbitals
+            .iter()
+            .zip(&group_of)
+            .map(|(orbital, &group)| LevelInput {
+                energy_ev: orbital.energy_ev,
+                occupancy: orbital.occupancy,
+                label: orbital
+                    .label
+                    .clone()
+                    .unwrap_or_else(|| format!("ψ{}", orbital.index + 1)),
+                group,
+                key: orbital.index,
+                shift_ev: analysis
+                    .level_shifts
+                    .get(orbital.index)
+                    .copied()
+                    .unwrap_or(0.0),
+            })
+            .collect(),
+    };
+    // Equivalent localized orbitals (same label, same energy: the three σ(N–H) of
+    // ammonia) are drawn side by side like a degenerate set.
+    let mut localized_groups: Vec<(String, f64, usize)> = Vec::new();
+    let localized = LadderInput {
+        title: options.titles.localized.clone(),
+        levels: analysis
+            .localized
+            .iter()
+            .enumerate()
+            .map(|(n, level)| {
+                let existing = localized_groups
+                    .iter()
+                    .find(|(label, energy, _)| {
+                        *label == level.label && (energy - level.energy_ev).abs() < DEGENERACY_EV
+                    })
+                    .map(|(_, _, group)| *group);
+                let group = existing.unwrap_or_else(|| {
+                    localized_groups.push((
+                        level.label.clone(),
+                        level.energy_ev,
+                        LOCALIZED_KEY_OFFSET + n,
+                    ));
+                    LOCALIZED_KEY_OFFSET + n
+                });
+                LevelInput {
+                    energy_ev: level.energy_ev,
+                    occupancy: level.occupancy,
+                    label: level.label.clone(),
+                    group,
+                    key: LOCALIZED_KEY_OFFSET + n,
+                    shift_ev: 0.0,
+                }
+            })
+            .collect(),
+    };
+    // Sum weights over each degenerate set (DESIGN §4.6), then apply the threshold.
+    let mut links: Vec<LinkInput> = Vec::new();
+    for link in &analysis.links {
+        let Some(&target) = group_of.get(link.canonical) else {
+            continue;
+        };
+        let key = LOCALIZED_KEY_OFFSET + link.localized;
+        match links
+            .iter_mut()
+            .find(|l| l.localized_key == key && l.delocalized_group == target)
+        {
+            Some(existing) => existing.weight += link.weight,
+            None => links.push(LinkInput {
+                localized_key: key,
+                delocalized_group: target,
+                weight: link.weight,
+            }),
+        }
+    }
+    links.retain(|l| l.weight >= options.link_threshold);
+    layout(&[delocalized, localized], &links, options.virtual_span_ev)
+}

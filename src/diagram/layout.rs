@@ -1,0 +1,499 @@
+//! Layout of a two-ladder energy-level diagram in abstract units (1000 wide, 700 high):
+//! an energy axis on the left, the delocalized ladder, a gap for correlation lines, the
+//! localized ladder. Degenerate levels are drawn side by side; labels that would collide
+//! are spread apart with leader lines (a one-dimensional overlap-removal pass, common
+//! practice, no source).
+
+use serde::Serialize;
+
+/// Width and height of the layout's coordinate space.
+pub const WIDTH: f64 = 1000.0;
+pub const HEIGHT: f64 = 700.0;
+const MARGIN_TOP: f64 = 70.0;
+const MARGIN_BOTTOM: f64 = 40.0;
+const AXIS_X: f64 = 60.0;
+/// Horizontal extent of the two ladders' bar areas; labels go outside them.
+const LADDER_SPANS: [(f64, f64); 2] = [(240.0, 440.0), (580.0, 780.0)];
+const BAR_WIDTH: f64 = 56.0;
+const BAR_GAP: f64 = 10.0;
+/// Smallest vertical distance between two labels of one ladder.
+pub const LABEL_SPACING: f64 = 15.0;
+
+/// Which ladder: the delocalized (canonical MOs) or the localized one.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize)]
+pub enum Side {
+    Delocalized,
+    Localized,
+}
+
+impl Side {
+    pub fn index(self) -> usize {
+        match self {
+            Side::Delocalized => 0,
+            Side::Localized => 1,
+        }
+    }
+}
+
+/// One energy level given to the layout.
+#[derive(Clone, Debug, PartialEq)]
+pub struct LevelInput {
+    pub energy_ev: f64,
+    pub occupancy: f64,
+    pub label: String,
+    /// Levels with the same group id form one degenerate set drawn side by side.
+    pub group: usize,
+    /// An identifier the caller uses to map a level back to its orbital.
+    pub key: usize,
+    /// Where the level moves when the lone-pair mixing switch is flipped (eV, 0 = stays).
+    pub shift_ev: f64,
+}
+
+/// One ladder given to the layout.
+#[derive(Clone, Debug, PartialEq)]
+pub struct LadderInput {
+    pub title: String,
+    pub levels: Vec<LevelInput>,
+}
+
+/// A correlation line from a localized level to a delocalized degenerate set.
+#[derive(Clone, Debug, PartialEq)]
+pub struct LinkInput {
+    /// Key of the localized level.
+    pub localized_key: usize,
+    /// Group id of the delocalized set.
+    pub delocalized_group: usize,
+    pub weight: f64,
+}
+
+/// A placed level bar.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Level {
+    pub key: usize,
+    pub group: usize,
+    pub energy_ev: f64,
+    pub occupancy: f64,
+    pub label: String,
+    pub x_left: f64,
+    pub x_right: f64,
+    pub y: f64,
+    /// Where the label's baseline-left point sits (after spreading).
+    pub label_x: f64,
+    pub label_y: f64,
+    pub is_homo: bool,
+    pub is_lumo: bool,
+    /// Vertical position of the level with the lone-pair switch flipped, when it moves
+    /// by more than 0.01 eV.
+    pub shifted_y: Option<f64>,
+}
+
+/// A placed correlation line, between the inner ends of two bars.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Link {
+    pub localized_key: usize,
+    pub delocalized_group: usize,
+    pub weight: f64,
+    pub from: (f64, f64),
+    pub to: (f64, f64),
+}
+
+/// A tick on the energy axis.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Tick {
+    pub y: f64,
+    pub energy_ev: f64,
+}
+
+/// A placed ladder.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Ladder {
+    pub title: String,
+    pub title_x: f64,
+    pub title_y: f64,
+    pub levels: Vec<Level>,
+    /// Levels outside the energy window, not drawn.
+    pub hidden_above: usize,
+}
+
+/// The whole diagram.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct Diagram {
+    pub width: f64,
+    pub height: f64,
+    pub axis_x: f64,
+    pub axis_top: f64,
+    pub axis_bottom: f64,
+    pub energy_min: f64,
+    pub energy_max: f64,
+    pub ticks: Vec<Tick>,
+    pub ladders: Vec<Ladder>,
+    pub links: Vec<Link>,
+}
+
+impl Diagram {
+    /// Vertical position of an energy (higher energy, smaller y).
+    pub fn y_of(&self, energy_ev: f64) -> f64 {
+        y_of(energy_ev, self.energy_min, self.energy_max)
+    }
+}
+
+fn y_of(energy: f64, min: f64, max: f64) -> f64 {
+    let span = (max - min).max(1e-9);
+    MARGIN_TOP + (max - energy) / span * (HEIGHT - MARGIN_TOP - MARGIN_BOTTOM)
+}
+
+/// A "nice" tick step (1, 2 or 5 × 10^k) giving about `target` ticks over `span`.
+fn tick_step(span: f64, target: f64) -> f64 {
+    let raw = (span / target).max(1e-9);
+    let magnitude = 10f64.powf(raw.log10().floor());
+    let fraction = raw / magnitude;
+    let nice = if fraction < 1.5 {
+        1.0
+    } else if fraction < 3.5 {
+        2.0
+    } else if fraction < 7.5 {
+        5.0
+    } else {
+        10.0
+    };
+    nice * magnitude
+}
+
+/// The energy window: every occupied level and the virtual levels up to `virtual_span`
+/// eV above the LUMO, padded by 1 eV.
+fn energy_window(ladders: &[LadderInput], virtual_span: f64) -> (f64, f64) {
+    let all = ladders.iter().flat_map(|l| &l.levels);
+    let lowest = all
+        .clone()
+        .map(|l| l.energy_ev)
+        .fold(f64::INFINITY, f64::min);
+    let highest_occupied = all
+        .clone()
+        .filter(|l| l.occupancy > 0.0)
+        .map(|l| l.energy_ev)
+        .fold(f64::NEG_INFINITY, f64::max);
+    let lowest_virtual = all
+        .clone()
+        .filter(|l| l.occupancy <= 0.0)
+        .map(|l| l.energy_ev)
+        .fold(f64::INFINITY, f64::min);
+    let top_anchor = if lowest_virtual.is_finite() {
+        lowest_virtual + virtual_span
+    } else {
+        highest_occupied
+    };
+    let highest = all
+        .map(|l| l.energy_ev)
+        .filter(|&e| e <= top_anchor)
+        .fold(f64::NEG_INFINITY, f64::max);
+    if !lowest.is_finite() || !highest.is_finite() {
+        return (-20.0, 0.0);
+    }
+    (lowest - 1.0, highest.max(lowest + 1.0) + 1.0)
+}
+
+/// Places both ladders, the axis and the links.
+pub fn layout(ladders: &[LadderInput; 2], links: &[LinkInput], virtual_span: f64) -> Diagram {
+    let (energy_min, energy_max) = energy_window(ladders, virtual_span);
+    let step = tick_step(energy_max - energy_min, 8.0);
+    let mut ticks = Vec::new();
+    let mut tick = (energy_min / step).ceil() * step;
+    while tick <= energy_max + 1e-9 {
+        ticks.push(Tick {
+            y: y_of(tick, energy_min, energy_max),
+            energy_ev: if tick.abs() < step * 1e-6 { 0.0 } else { tick },
+        });
+        tick += step;
+    }
+    let placed: Vec<Ladder> = ladders
+        .iter()
+        .zip(LADDER_SPANS)
+        .enumerate()
+        .map(|(side, (input, span))| place_ladder(input, span, side, energy_min, energy_max))
+        .collect();
+    let links = place_links(&placed, links);
+    Diagram {
+        width: WIDTH,
+        height: HEIGHT,
+        axis_x: AXIS_X,
+        axis_top: MARGIN_TOP,
+        axis_bottom: HEIGHT - MARGIN_BOTTOM,
+        energy_min,
+        energy_max,
+        ticks,
+        ladders: placed,
+        links,
+    }
+}
+
+fn place_ladder(input: &LadderInput, span: (f64, f64), side: usize, min: f64, max: f64) -> Ladder {
+    // Group degenerate members, keeping the caller's order within a group.
+    let mut groups: Vec<(usize, Vec<&LevelInput>)> = Vec::new();
+    let mut hidden_above = 0;
+    for level in &input.levels {
+        if level.energy_ev > max || level.energy_ev < min {
+            hidden_above += usize::from(level.energy_ev > max);
+            continue;
+        }
+        match groups.iter_mut().find(|(group, _)| *group == level.group) {
+            Some((_, members)) => members.push(level),
+            None => groups.push((level.group, vec![level])),
+        }
+    }
+    let homo_energy = input
+        .levels
+        .iter()
+        .filter(|l| l.occupancy > 0.0)
+        .map(|l| l.energy_ev)
+        .fold(f64::NEG_INFINITY, f64::max);
+    let lumo_energy = input
+        .levels
+        .iter()
+        .filter(|l| l.occupancy <= 0.0)
+        .map(|l| l.energy_ev)
+        .fold(f64::INFINITY, f64::min);
+    let centre = (span.0 + span.1) / 2.0;
+    let mut levels = Vec::new();
+    for (_, members) in &groups {
+        let count = members.len() as f64;
+        let total = count * BAR_WIDTH + (count - 1.0) * BAR_GAP;
+        for (n, member) in members.iter().enumerate() {
+            let x_left = centre - total / 2.0 + n as f64 * (BAR_WIDTH + BAR_GAP);
+            let y = y_of(member.energy_ev, min, max);
+            levels.push(Level {
+                key: member.key,
+                group: member.group,
+                energy_ev: member.energy_ev,
+                occupancy: member.occupancy,
+                label: member.label.clone(),
+                x_left,
+                x_right: x_left + BAR_WIDTH,
+                y,
+                label_x: 0.0,
+                label_y: y,
+                // Tagged once per set, on its last member, in the canonical ladder only (a
+                // Lewis ladder has no frontier orbitals of its own).
+                is_homo: side == 0
+                    && n + 1 == members.len()
+                    && (member.energy_ev - homo_energy).abs() < 1e-6,
+                is_lumo: side == 0
+                    && n + 1 == members.len()
+                    && (member.energy_ev - lumo_energy).abs() < 1e-6,
+                shifted_y: (member.shift_ev.abs() > 0.01)
+                    .then(|| y_of(member.energy_ev + member.shift_ev, min, max)),
+            });
+        }
+    }
+    spread_labels(&mut levels, side, span);
+    Ladder {
+        title: input.title.clone(),
+        title_x: centre,
+        title_y: 32.0,
+        levels,
+        hidden_above,
+    }
+}
+
+/// One label per degenerate set, placed outside the ladder (left of the delocalized one,
+/// right of the localized one), pushed apart to at least `LABEL_SPACING`.
+fn spread_labels(levels: &mut [Level], side: usize, span: (f64, f64)) {
+    let mut order: Vec<usize> = (0..levels.len()).collect();
+    order.sort_by(|&a, &b| levels[a].y.total_cmp(&levels[b].y));
+    // First member of each group carries the label.
+    let mut seen = Vec::new();
+    let mut carriers: Vec<usize> = Vec::new();
+    for index in order {
+        if !seen.contains(&levels[index].group) {
+            seen.push(levels[index].group);
+            carriers.push(index);
+        }
+    }
+    let mut positions: Vec<f64> = carriers.iter().map(|&i| levels[i].y).collect();
+    // Push down overlapping labels, then pull the block back up around its centre.
+    for n in 1..positions.len() {
+        if positions[n] - positions[n - 1] < LABEL_SPACING {
+            positions[n] = positions[n - 1] + LABEL_SPACING;
+        }
+    }
+    let shift: f64 = carriers
+        .iter()
+        .zip(&positions)
+        .map(|(&i, &p)| p - levels[i].y)
+        .sum::<f64>()
+        / positions.len().max(1) as f64;
+    for p in positions.iter_mut() {
+        *p -= shift / 2.0;
+    }
+    for n in 1..positions.len() {
+        if positions[n] - positions[n - 1] < LABEL_SPACING {
+            positions[n] = positions[n - 1] + LABEL_SPACING;
+        }
+    }
+    for (&index, &y) in carriers.iter().zip(&positions) {
+        levels[index].label_y = y;
+        levels[index].label_x = if side == 0 {
+            span.0 - 8.0
+        } else {
+            span.1 + 8.0
+        };
+    }
+    for level in levels.iter_mut() {
+        if level.label_x == 0.0 {
+            // Non-carrier members share the carrier's label; mark them as unlabelled.
+            level.label_x = f64::NAN;
+        }
+    }
+}
+
+fn place_links(ladders: &[Ladder], links: &[LinkInput]) -> Vec<Link> {
+    let mut placed = Vec::new();
+    let (Some(delocalized), Some(localized)) = (ladders.first(), ladders.get(1)) else {
+        return placed;
+    };
+    for link in links {
+        let Some(from) = localized
+            .levels
+            .iter()
+            .find(|l| l.key == link.localized_key)
+        else {
+            continue;
+        };
+        // Lines of an equivalent set leave from the set's inner (left) end.
+        let inner_x = localized
+            .levels
+            .iter()
+            .filter(|l| l.group == from.group)
+            .map(|l| l.x_left)
+            .fold(f64::INFINITY, f64::min);
+        let targets: Vec<&Level> = delocalized
+            .levels
+            .iter()
+            .filter(|l| l.group == link.delocalized_group)
+            .collect();
+        let Some(right_most) = targets
+            .iter()
+            .max_by(|a, b| a.x_right.total_cmp(&b.x_right))
+        else {
+            continue;
+        };
+        placed.push(Link {
+            localized_key: link.localized_key,
+            delocalized_group: link.delocalized_group,
+            weight: link.weight,
+            from: (inner_x, from.y),
+            to: (right_most.x_right, right_most.y),
+        });
+    }
+    placed
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    fn level(energy_ev: f64, occupancy: f64, group: usize, key: usize) -> LevelInput {
+        LevelInput {
+            energy_ev,
+            occupancy,
+            label: format!("L{key}"),
+            group,
+            key,
+            shift_ev: 0.0,
+        }
+    }
+
+    fn ammonia_like() -> [LadderInput; 2] {
+        [
+            LadderInput {
+                title: "left".into(),
+                levels: vec![
+                    level(-28.6, 2.0, 0, 0),
+                    level(-16.5, 2.0, 1, 1),
+                    level(-16.5, 2.0, 1, 2),
+                    level(-13.7, 2.0, 2, 3),
+                    level(2.2, 0.0, 3, 4),
+                    level(2.2, 0.0, 3, 5),
+                    level(24.5, 0.0, 4, 6),
+                ],
+            },
+            LadderInput {
+                title: "right".into(),
+                levels: vec![level(-18.0, 2.0, 10, 10), level(-14.0, 2.0, 11, 11)],
+            },
+        ]
+    }
+
+    #[test]
+    fn energies_map_monotonically_and_degenerate_levels_sit_side_by_side() {
+        let diagram = layout(&ammonia_like(), &[], 8.0);
+        let left = &diagram.ladders[0];
+        let e: Vec<&Level> = left.levels.iter().filter(|l| l.group == 1).collect();
+        assert_eq!(e.len(), 2);
+        assert_eq!(e[0].y, e[1].y);
+        assert!(e[0].x_right <= e[1].x_left, "side by side, not overlapping");
+        let y_low = diagram.y_of(-28.6);
+        let y_high = diagram.y_of(-13.7);
+        assert!(y_low > y_high, "higher energy is drawn higher (smaller y)");
+        // The 24.5 eV level is beyond LUMO + 8 eV and is hidden, not squeezed in.
+        assert_eq!(left.hidden_above, 1);
+        assert!(left.levels.iter().any(|l| l.is_homo && l.key == 3));
+        assert_eq!(
+            left.levels.iter().filter(|l| l.is_lumo).count(),
+            1,
+            "one tag per set"
+        );
+    }
+
+    #[test]
+    fn labels_never_overlap() {
+        let mut ladders = ammonia_like();
+        ladders[1].levels = (0..8)
+            .map(|k| level(-15.0 + 0.05 * k as f64, 2.0, 20 + k, 20 + k))
+            .collect();
+        let diagram = layout(&ladders, &[], 8.0);
+        let mut ys: Vec<f64> = diagram.ladders[1]
+            .levels
+            .iter()
+            .filter(|l| l.label_x.is_finite())
+            .map(|l| l.label_y)
+            .collect();
+        ys.sort_by(f64::total_cmp);
+        assert_eq!(ys.len(), 8);
+        for pair in ys.windows(2) {
+            assert!(pair[1] - pair[0] >= LABEL_SPACING - 1e-9);
+        }
+    }
+
+    #[test]
+    fn links_join_the_inner_ends_of_bars() {
+        let links = vec![LinkInput {
+            localized_key: 11,
+            delocalized_group: 1,
+            weight: 0.6,
+        }];
+        let diagram = layout(&ammonia_like(), &links, 8.0);
+        assert_eq!(diagram.links.len(), 1);
+        let link = &diagram.links[0];
+        assert!(
+            link.to.0 < link.from.0,
+            "from the right ladder to the left one"
+        );
+        assert!((link.to.1 - diagram.y_of(-16.5)).abs() < 1e-9);
+    }
+
+    #[test]
+    fn ticks_are_round_numbers_inside_the_window() {
+        let diagram = layout(&ammonia_like(), &[], 8.0);
+        assert!(diagram.ticks.len() >= 4);
+        for tick in &diagram.ticks {
+            assert!(
+                tick.energy_ev >= diagram.energy_min - 1e-9
+                    && tick.energy_ev <= diagram.energy_max + 1e-9
+            );
+            assert!(
+                (tick.energy_ev / 5.0).fract().abs() < 1e-9
+                    || (tick.energy_ev / 2.0).fract().abs() < 1e-9
+            );
+        }
+    }
+}

@@ -1,0 +1,121 @@
+//! Diptych's diagram palette, shared by the screen and the SVG writer: one muted accent
+//! per irrep family (a, b, e, t, g/h) and per kind of localized orbital (σ, π, n); our
+//! own choice, no source. Label text is split into normal, subscript and superscript
+//! runs following Mulliken's notation (R. S. Mulliken, J. Chem. Phys. 23, 1997 (1955)).
+
+/// RGB of a level bar, from its label; `None` means "use the ink colour".
+pub fn level_rgb(label: &str) -> Option<[u8; 3]> {
+    let first = label.chars().find(|c| c.is_alphabetic())?;
+    Some(match first {
+        'a' | 'σ' => [46, 110, 140],
+        'b' => [170, 110, 40],
+        'e' | 'δ' | 'φ' => [120, 80, 150],
+        't' | 'π' => [60, 130, 80],
+        'g' | 'h' => [150, 70, 90],
+        'n' => [170, 80, 60],
+        _ => return None,
+    })
+}
+
+/// The grey with the same luminance (Rec. 709 weights), for greyscale output.
+pub fn to_grey(rgb: [u8; 3]) -> [u8; 3] {
+    let y = 0.2126 * rgb[0] as f64 + 0.7152 * rgb[1] as f64 + 0.0722 * rgb[2] as f64;
+    let v = y.round().clamp(0.0, 255.0) as u8;
+    [v, v, v]
+}
+
+/// How a run of label text is set.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum Script {
+    Normal,
+    Sub,
+    Super,
+}
+
+/// Splits an orbital label into runs: "3a1" → 3a, ₁; "1b3u" → 1b, ₃ᵤ; "2a1'" → 2a, ₁,
+/// ′; "1σg+" → 1σ, g, ⁺. Bond labels such as "σ*(N–H)" are one normal run.
+pub fn label_runs(label: &str) -> Vec<(String, Script)> {
+    if label.contains('(') || label.is_empty() {
+        return vec![(label.to_string(), Script::Normal)];
+    }
+    let chars: Vec<char> = label.chars().collect();
+    let mut position = 0;
+    while position < chars.len() && chars[position].is_ascii_digit() {
+        position += 1;
+    }
+    let irrep_letters = [
+        'a', 'b', 'e', 't', 'g', 'h', 'σ', 'π', 'δ', 'φ', 'A', 'B', 'E', 'T', 'G', 'H',
+    ];
+    if position >= chars.len() || !irrep_letters.contains(&chars[position]) {
+        return vec![(label.to_string(), Script::Normal)];
+    }
+    position += 1;
+    let head: String = chars[..position].iter().collect();
+    let mut runs = vec![(head, Script::Normal)];
+    let mut sub = String::new();
+    while position < chars.len()
+        && (chars[position].is_ascii_digit() || matches!(chars[position], 'g' | 'u'))
+    {
+        sub.push(chars[position]);
+        position += 1;
+    }
+    if !sub.is_empty() {
+        runs.push((sub, Script::Sub));
+    }
+    let rest: String = chars[position..].iter().collect();
+    let primes = rest.replace("''", "″").replace('\'', "′");
+    let (normal, superscript): (String, String) =
+        primes.chars().partition(|c| !matches!(c, '+' | '-' | '−'));
+    if !normal.is_empty() {
+        runs.push((normal, Script::Normal));
+    }
+    if !superscript.is_empty() {
+        runs.push((superscript.replace('-', "−"), Script::Super));
+    }
+    runs
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn mulliken_labels_split_into_runs() {
+        use Script::*;
+        assert_eq!(
+            label_runs("3a1"),
+            vec![("3a".into(), Normal), ("1".into(), Sub)]
+        );
+        assert_eq!(
+            label_runs("1b3u"),
+            vec![("1b".into(), Normal), ("3u".into(), Sub)]
+        );
+        assert_eq!(label_runs("1e"), vec![("1e".into(), Normal)]);
+        assert_eq!(
+            label_runs("2a1''"),
+            vec![
+                ("2a".into(), Normal),
+                ("1".into(), Sub),
+                ("″".into(), Normal)
+            ]
+        );
+        assert_eq!(
+            label_runs("1σg+"),
+            vec![
+                ("1σ".into(), Normal),
+                ("g".into(), Sub),
+                ("+".into(), Super)
+            ]
+        );
+        assert_eq!(label_runs("σ*(N–H)"), vec![("σ*(N–H)".into(), Normal)]);
+        assert_eq!(label_runs("ψ3"), vec![("ψ3".into(), Normal)]);
+    }
+
+    #[test]
+    fn greyscale_keeps_luminance_order() {
+        let dark = to_grey([46, 110, 140]);
+        let light = to_grey([226, 222, 212]);
+        assert!(dark[0] < light[0]);
+        assert_eq!(dark[0], dark[1]);
+    }
+}

@@ -1,0 +1,393 @@
+//! SVG 1.1 writer for the `Diagram` layout (W3C, Scalable Vector Graphics 1.1, 2nd ed.,
+//! 2011): text stays text (subscripts and superscripts as `tspan` with `dy` shifts, which
+//! every renderer supports), user strings are XML-escaped, numbers are printed with fixed
+//! precision so that the same diagram always gives the same bytes.
+
+use std::fmt::Write;
+
+use super::layout::{Diagram, Level};
+use super::style::{Script, label_runs, level_rgb, to_grey};
+
+/// Export choices (DESIGN §5.3).
+#[derive(Clone, Debug, PartialEq)]
+pub struct SvgOptions {
+    /// Size of the drawing in CSS pixels; the layout is scaled to fit.
+    pub width: f64,
+    pub height: f64,
+    /// CSS font-family list; end with a generic family so any renderer finds a font.
+    pub font_family: String,
+    /// Font size of level labels, in layout units (the layout is 1000 wide).
+    pub font_size: f64,
+    pub greyscale: bool,
+    pub show_energies: bool,
+    /// White background (true) or transparent (false).
+    pub white_background: bool,
+}
+
+impl Default for SvgOptions {
+    fn default() -> Self {
+        SvgOptions {
+            width: 1000.0,
+            height: 700.0,
+            font_family: "DejaVu Sans, Arial, Helvetica, sans-serif".into(),
+            font_size: 16.0,
+            greyscale: false,
+            show_energies: true,
+            white_background: true,
+        }
+    }
+}
+
+/// Escapes the five XML special characters and drops characters XML 1.0 forbids.
+pub fn escape_xml(text: &str) -> String {
+    let mut out = String::with_capacity(text.len());
+    for c in text.chars() {
+        match c {
+            '<' => out.push_str("&lt;"),
+            '>' => out.push_str("&gt;"),
+            '&' => out.push_str("&amp;"),
+            '"' => out.push_str("&quot;"),
+            '\'' => out.push_str("&apos;"),
+            '\t' | '\n' | '\r' => out.push(' '),
+            c if (c as u32) < 0x20 || c == '\u{FFFE}' || c == '\u{FFFF}' => {}
+            c => out.push(c),
+        }
+    }
+    out
+}
+
+fn number(value: f64) -> String {
+    let text = format!("{value:.2}");
+    let text = text.trim_end_matches('0').trim_end_matches('.');
+    if text == "-0" {
+        "0".into()
+    } else {
+        text.to_string()
+    }
+}
+
+fn energy_text(value: f64, decimals: usize) -> String {
+    let text = format!("{value:.decimals$}");
+    match text.strip_prefix('-') {
+        Some(rest) if rest.chars().any(|c| c != '0' && c != '.') => format!("−{rest}"),
+        Some(rest) => rest.to_string(),
+        None => text,
+    }
+}
+
+fn colour(rgb: [u8; 3], greyscale: bool) -> String {
+    let [r, g, b] = if greyscale { to_grey(rgb) } else { rgb };
+    format!("#{r:02x}{g:02x}{b:02x}")
+}
+
+const INK: [u8; 3] = [34, 34, 34];
+const FAINT: [u8; 3] = [130, 130, 130];
+
+/// Label text as `tspan` runs with baseline shifts that are undone after each run.
+fn label_markup(label: &str, font_size: f64) -> String {
+    let mut out = String::new();
+    let shift = font_size * 0.3;
+    for (text, script) in label_runs(label) {
+        let text = escape_xml(&text);
+        match script {
+            Script::Normal => out.push_str(&format!("<tspan>{text}</tspan>")),
+            Script::Sub => out.push_str(&format!(
+                "<tspan dy=\"{}\" font-size=\"{}\">{text}</tspan><tspan dy=\"{}\"></tspan>",
+                number(shift),
+                number(font_size * 0.72),
+                number(-shift)
+            )),
+            Script::Super => out.push_str(&format!(
+                "<tspan dy=\"{}\" font-size=\"{}\">{text}</tspan><tspan dy=\"{}\"></tspan>",
+                number(-shift * 1.3),
+                number(font_size * 0.72),
+                number(shift * 1.3)
+            )),
+        }
+    }
+    out
+}
+
+/// The diagram as a standalone SVG document.
+pub fn to_svg(diagram: &Diagram, options: &SvgOptions) -> String {
+    let mut svg = String::new();
+    let font = escape_xml(&options.font_family);
+    let ink = colour(INK, options.greyscale);
+    let faint = colour(FAINT, options.greyscale);
+    let _ = writeln!(svg, "<?xml version=\"1.0\" encoding=\"UTF-8\"?>");
+    let _ = writeln!(
+        svg,
+        "<svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" width=\"{}\" height=\"{}\" viewBox=\"0 0 {} {}\" font-family=\"{font}\">",
+        number(options.width),
+        number(options.height),
+        number(diagram.width),
+        number(diagram.height)
+    );
+    let titles: Vec<String> = diagram
+        .ladders
+        .iter()
+        .map(|l| escape_xml(&l.title))
+        .collect();
+    let _ = writeln!(svg, "<title>{}</title>", titles.join(" | "));
+    if options.white_background {
+        let _ = writeln!(
+            svg,
+            "<rect x=\"0\" y=\"0\" width=\"{}\" height=\"{}\" fill=\"#ffffff\"/>",
+            number(diagram.width),
+            number(diagram.height)
+        );
+    }
+    // Energy axis.
+    let _ = writeln!(
+        svg,
+        "<g id=\"axis\" stroke=\"{ink}\" stroke-width=\"1.2\" fill=\"{ink}\">"
+    );
+    let _ = writeln!(
+        svg,
+        "<line x1=\"{x}\" y1=\"{}\" x2=\"{x}\" y2=\"{}\"/>",
+        number(diagram.axis_top),
+        number(diagram.axis_bottom),
+        x = number(diagram.axis_x)
+    );
+    for tick in &diagram.ticks {
+        let _ = writeln!(
+            svg,
+            "<line x1=\"{}\" y1=\"{y}\" x2=\"{}\" y2=\"{y}\"/><text x=\"{}\" y=\"{y}\" stroke=\"none\" font-size=\"{}\" text-anchor=\"end\" dominant-baseline=\"central\">{}</text>",
+            number(diagram.axis_x - 6.0),
+            number(diagram.axis_x),
+            number(diagram.axis_x - 10.0),
+            number(options.font_size * 0.85),
+            energy_text(tick.energy_ev, 0),
+            y = number(tick.y)
+        );
+    }
+    let _ = writeln!(
+        svg,
+        "<text x=\"{}\" y=\"{}\" stroke=\"none\" font-size=\"{}\" text-anchor=\"middle\">E / eV</text>",
+        number(diagram.axis_x),
+        number(diagram.axis_top - 12.0),
+        number(options.font_size * 0.9)
+    );
+    let _ = writeln!(svg, "</g>");
+    // Correlation lines.
+    let _ = writeln!(
+        svg,
+        "<g id=\"links\" stroke=\"{faint}\" stroke-linecap=\"round\">"
+    );
+    for link in &diagram.links {
+        let _ = writeln!(
+            svg,
+            "<line x1=\"{}\" y1=\"{}\" x2=\"{}\" y2=\"{}\" stroke-width=\"{}\" stroke-opacity=\"{}\"/>",
+            number(link.from.0),
+            number(link.from.1),
+            number(link.to.0),
+            number(link.to.1),
+            number(0.8 + 4.0 * link.weight.clamp(0.0, 1.0)),
+            number(0.25 + 0.75 * link.weight.clamp(0.0, 1.0))
+        );
+    }
+    let _ = writeln!(svg, "</g>");
+    for (index, ladder) in diagram.ladders.iter().enumerate() {
+        let _ = writeln!(svg, "<g id=\"ladder-{index}\">");
+        let _ = writeln!(
+            svg,
+            "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"middle\" fill=\"{ink}\">{}</text>",
+            number(ladder.title_x),
+            number(ladder.title_y),
+            number(options.font_size * 1.3),
+            escape_xml(&ladder.title)
+        );
+        for level in &ladder.levels {
+            write_level(&mut svg, level, index, options, &ink, &faint);
+        }
+        let _ = writeln!(svg, "</g>");
+    }
+    let _ = writeln!(svg, "</svg>");
+    svg
+}
+
+fn write_level(
+    svg: &mut String,
+    level: &Level,
+    ladder: usize,
+    options: &SvgOptions,
+    ink: &str,
+    faint: &str,
+) {
+    let bar = level_rgb(&level.label)
+        .map_or_else(|| ink.to_string(), |rgb| colour(rgb, options.greyscale));
+    let dash = if level.occupancy > 0.0 {
+        ""
+    } else {
+        " stroke-dasharray=\"7 4\""
+    };
+    let _ = writeln!(
+        svg,
+        "<line x1=\"{}\" y1=\"{y}\" x2=\"{}\" y2=\"{y}\" stroke=\"{bar}\" stroke-width=\"3.5\"{dash}/>",
+        number(level.x_left),
+        number(level.x_right),
+        y = number(level.y)
+    );
+    // Where the level goes with the lone-pair switch flipped: a faint dotted bar and an
+    // arrow from here to there.
+    if let Some(shifted) = level.shifted_y {
+        let _ = writeln!(
+            svg,
+            "<line x1=\"{}\" y1=\"{s}\" x2=\"{}\" y2=\"{s}\" stroke=\"{faint}\" stroke-width=\"1.5\" stroke-dasharray=\"2 3\"/><line x1=\"{x}\" y1=\"{}\" x2=\"{x}\" y2=\"{s}\" stroke=\"{faint}\" stroke-width=\"1\"/>",
+            number(level.x_left),
+            number(level.x_right),
+            number(level.y),
+            s = number(shifted),
+            x = number(level.x_left - 4.0)
+        );
+    }
+    // Electrons: up and down arrows (one arrow for a singly occupied level).
+    if level.occupancy > 0.05 {
+        let centre = (level.x_left + level.x_right) / 2.0;
+        let arrows: Vec<(f64, bool)> = if level.occupancy > 1.5 {
+            vec![(centre - 6.0, true), (centre + 6.0, false)]
+        } else {
+            vec![(centre, true)]
+        };
+        for (x, up) in arrows {
+            let (tail, head, back) = if up {
+                (level.y + 10.0, level.y - 10.0, 5.0)
+            } else {
+                (level.y - 10.0, level.y + 10.0, -5.0)
+            };
+            let _ = writeln!(
+                svg,
+                "<path d=\"M {x} {t} L {x} {h} M {l} {b} L {x} {h} L {r} {b}\" fill=\"none\" stroke=\"{ink}\" stroke-width=\"1.6\"/>",
+                x = number(x),
+                t = number(tail),
+                h = number(head),
+                l = number(x - 3.5),
+                r = number(x + 3.5),
+                b = number(head + back)
+            );
+        }
+    }
+    if level.label_x.is_finite() {
+        let bar_end = if ladder == 0 {
+            level.x_left
+        } else {
+            level.x_right
+        };
+        if (level.label_y - level.y).abs() > 0.5 {
+            let _ = writeln!(
+                svg,
+                "<line x1=\"{}\" y1=\"{}\" x2=\"{}\" y2=\"{}\" stroke=\"{faint}\" stroke-width=\"0.8\"/>",
+                number(bar_end),
+                number(level.y),
+                number(level.label_x),
+                number(level.label_y)
+            );
+        }
+        let anchor = if ladder == 0 { "end" } else { "start" };
+        let label = label_markup(&level.label, options.font_size);
+        let energy = if options.show_energies {
+            format!(
+                "<tspan fill=\"{faint}\">{}</tspan>",
+                energy_text(level.energy_ev, 2)
+            )
+        } else {
+            String::new()
+        };
+        let content = match (ladder, energy.is_empty()) {
+            (_, true) => label,
+            (0, false) => format!("{energy}<tspan>  </tspan>{label}"),
+            _ => format!("{label}<tspan>  </tspan>{energy}"),
+        };
+        let _ = writeln!(
+            svg,
+            "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"{anchor}\" dominant-baseline=\"central\" fill=\"{ink}\" xml:space=\"preserve\">{content}</text>",
+            number(level.label_x),
+            number(level.label_y),
+            number(options.font_size)
+        );
+    }
+    if level.is_homo || level.is_lumo {
+        let (x, anchor) = if ladder == 0 {
+            (level.x_right + 5.0, "start")
+        } else {
+            (level.x_left - 5.0, "end")
+        };
+        let _ = writeln!(
+            svg,
+            "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"{anchor}\" fill=\"{faint}\">{}</text>",
+            number(x),
+            number(level.y - 4.0),
+            number(options.font_size * 0.6),
+            if level.is_homo { "HOMO" } else { "LUMO" }
+        );
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::diagram::layout::{LadderInput, LevelInput, layout};
+
+    fn sample(title: &str) -> Diagram {
+        let level = |energy_ev: f64, occupancy: f64, label: &str, key: usize| LevelInput {
+            energy_ev,
+            occupancy,
+            label: label.into(),
+            group: key,
+            key,
+            shift_ev: 0.0,
+        };
+        layout(
+            &[
+                LadderInput {
+                    title: title.into(),
+                    levels: vec![
+                        level(-20.0, 2.0, "2a1", 0),
+                        level(-12.0, 2.0, "3a1", 1),
+                        level(2.0, 0.0, "4a1", 2),
+                    ],
+                },
+                LadderInput {
+                    title: "right".into(),
+                    levels: vec![level(-14.0, 2.0, "n(N)", 10)],
+                },
+            ],
+            &[],
+            8.0,
+        )
+    }
+
+    #[test]
+    fn user_text_is_escaped() {
+        let svg = to_svg(&sample("a < b & \"c\" — σ/π 軌道"), &SvgOptions::default());
+        assert!(svg.contains("a &lt; b &amp; &quot;c&quot; — σ/π 軌道"));
+        assert!(!svg.contains("a < b"));
+    }
+
+    #[test]
+    fn output_is_deterministic_and_has_subscripts() {
+        let a = to_svg(&sample("t"), &SvgOptions::default());
+        let b = to_svg(&sample("t"), &SvgOptions::default());
+        assert_eq!(a, b);
+        assert!(a.contains("<tspan>3a</tspan><tspan dy="));
+        assert!(a.contains("stroke-dasharray"), "virtual level dashed");
+    }
+
+    #[test]
+    fn greyscale_has_no_hue() {
+        let options = SvgOptions {
+            greyscale: true,
+            ..SvgOptions::default()
+        };
+        let svg = to_svg(&sample("t"), &options);
+        for hex in svg.split('#').skip(1).map(|s| &s[..6]) {
+            let bytes: Vec<u8> = (0..3)
+                .map(|i| u8::from_str_radix(&hex[2 * i..2 * i + 2], 16).unwrap())
+                .collect();
+            assert!(
+                bytes[0] == bytes[1] && bytes[1] == bytes[2],
+                "#{hex} is not grey"
+            );
+        }
+    }
+}
