@@ -33,7 +33,7 @@
 //!   non-convergence a reported state (`converged: false`).
 //!
 //! **Reading.** Centres: the fewest atoms, by decreasing Mulliken population, whose
-//! populations add to at least [`CENTRE_SHARE`] (common practice, no source for the value).
+//! populations add to at least [`CENTRE_SHARE`] (our choice of value, no source).
 //! One centre: lone pair n(X); two: bond; more: multi-centre. Atoms in labels are in file
 //! order with hydrogen last. A two-centre orbital is π when
 //! its parts on the two atoms are mostly p perpendicular to the bond axis (a node plane
@@ -62,11 +62,12 @@ pub const FLAT_PAIR: f64 = 1e-12;
 /// maximum, so a change of P below 1e-10 alone may leave the orbitals ~1e-5 rad from it.
 /// Our choice, no source (PySCF also tests a gradient norm beside the function change).
 pub const GRADIENT_TOLERANCE: f64 = 1e-9;
-/// Over-relaxation factor of the slow phase (see `relaxation_factor`): tuned on C60
-/// (1.0: 77 sweeps, 1.3: 46, 1.5: 30, 1.7: 45). Our choice, no source.
+/// Over-relaxation factor of the slow phase (see `relaxation_factor`): tuned on C60 with
+/// full sweeps from the canonical start (ω = 1.0: 77 sweeps, 1.3: 46, 1.5: 30, 1.7: 45).
+/// Our choice, no source.
 pub const OVER_RELAXATION: f64 = 1.5;
 /// Until the function criterion is met, rotations smaller than this fraction of the
-/// previous sweep's largest angle are skipped (they are redone, exactly, afterwards).
+/// previous sweep's largest angle are skipped; once it is met, every rotation is done.
 const SKIP_ANGLE_FRACTION: f64 = 1e-4;
 /// The first sweeps visit every pair.
 const FULL_SWEEPS_FIRST: usize = 3;
@@ -82,8 +83,8 @@ pub const POLISHING_SWEEPS: usize = 4;
 /// Rotations by less than this angle (radians) are skipped (rounding level).
 pub const MIN_ANGLE: f64 = 1e-12;
 /// Centres of a localized orbital: the fewest atoms whose Mulliken populations add to this.
-/// Common practice, no source: 0.9 keeps EHT lone pairs one-centre and polar bonds
-/// two-centre for the demo molecules.
+/// Our choice, no source: 0.9 keeps EHT lone pairs one-centre and polar bonds two-centre
+/// for the demo molecules (tests/localize_demo.rs).
 pub const CENTRE_SHARE: f64 = 0.9;
 /// A two-centre orbital is labelled π when the norm-weighted mean, over its two atoms, of
 /// the share of the atom's part that is p perpendicular to the bond axis exceeds this.
