@@ -9,20 +9,31 @@
 //! calls its cost function with the default exponent 2; tests/reference/pyscf_pm_* compare
 //! the two on the same matrices.
 //!
-//! **Method.** Jacobi sweeps over all pairs (i < j) in a fixed order; each pair is rotated
+//! **Method.** Jacobi sweeps over pairs (i < j) in a fixed order; each pair is rotated
 //! by the closed-form angle of Pipek and Mezey: with
 //! A_ij = Σ_A [(Q_A^ij)² − ¼(Q_A^i − Q_A^j)²] and B_ij = Σ_A Q_A^ij (Q_A^i − Q_A^j), the
 //! gain of the rotation (i, j) → (cos γ i + sin γ j, −sin γ i + cos γ j) is
 //! A_ij (1 − cos 4γ) + B_ij sin 4γ, maximal at 4γ = atan2(B_ij, −A_ij) with gain
-//! A_ij + √(A_ij² + B_ij²). A flat pair (see [`FLAT_PAIR`]) is left alone,
-//! so degenerate cases (the lone pairs of one atom, a single atom, symmetric sets with many
-//! equivalent rotations) stop without wandering. The start is the input orbitals
-//! (deterministic); optionally a few fixed, deterministic rotated starts are tried as well
-//! and the best maximum kept. Convergence: the change of P over a full sweep below the
-//! tolerance (default 1e-10) and every |B_ij| in it below [`GRADIENT_TOLERANCE`]; a sweep cap makes non-convergence a reported state.
+//! A_ij + √(A_ij² + B_ij²) (so dP/dγ = 4 B_ij at γ = 0). A flat pair (see [`FLAT_PAIR`]) is
+//! left alone, so degenerate cases (the lone pairs of one atom, a single atom, symmetric
+//! sets with many equivalent rotations) stop without wandering.
+//!
+//! - Start (deterministic): by default the Cholesky orbitals of the occupied density
+//!   ([`Start::Cholesky`]), which depend on the density only, not on how an eigensolver
+//!   happened to rotate a degenerate set; or the input orbitals ([`Start::Input`]).
+//!   Optionally a few fixed rotated starts as well, keeping the best maximum.
+//! - Speed-ups that leave the fixed point unchanged: in the slow linear phase of large
+//!   conjugated systems the angles are over-relaxed by [`OVER_RELAXATION`] (every pair
+//!   still gains for 0 < ω < 2); between full sweeps, a few partial sweeps visit only the
+//!   pairs whose gradient was not negligible; before convergence, rotations far smaller
+//!   than the previous sweep's largest are deferred.
+//! - Convergence, decided on full sweeps only: P changes by less than the tolerance
+//!   (default 1e-10) over a sweep; then up to [`POLISHING_SWEEPS`] more while every |B_ij|
+//!   is not yet below [`GRADIENT_TOLERANCE`] and still falling fast. A sweep cap makes
+//!   non-convergence a reported state (`converged: false`).
 //!
 //! **Reading.** Centres: the fewest atoms, by decreasing Mulliken population, whose
-//! populations add to at least [`CENTRE_SHARE`] (common practice, no source for the value).
+//! populations add to at least [`CENTRE_SHARE`] (our choice of value, no source).
 //! One centre: lone pair n(X); two: bond; more: multi-centre. Atoms in labels are in file
 //! order with hydrogen last. A two-centre orbital is π when
 //! its parts on the two atoms are mostly p perpendicular to the bond axis (a node plane
@@ -51,9 +62,13 @@ pub const FLAT_PAIR: f64 = 1e-12;
 /// maximum, so a change of P below 1e-10 alone may leave the orbitals ~1e-5 rad from it.
 /// Our choice, no source (PySCF also tests a gradient norm beside the function change).
 pub const GRADIENT_TOLERANCE: f64 = 1e-9;
-/// Over-relaxation factor of the slow phase (see `relaxation_factor`): tuned on C60
-/// (1.0: 77 sweeps, 1.3: 46, 1.5: 30, 1.7: 45). Our choice, no source.
+/// Over-relaxation factor of the slow phase (see `relaxation_factor`): tuned on C60 with
+/// full sweeps from the canonical start (ω = 1.0: 77 sweeps, 1.3: 46, 1.5: 30, 1.7: 45).
+/// Our choice, no source.
 pub const OVER_RELAXATION: f64 = 1.5;
+/// Until the function criterion is met, rotations smaller than this fraction of the
+/// previous sweep's largest angle are skipped; once it is met, every rotation is done.
+const SKIP_ANGLE_FRACTION: f64 = 1e-4;
 /// The first sweeps visit every pair.
 const FULL_SWEEPS_FIRST: usize = 3;
 /// Partial sweeps (active pairs only) between two full sweeps.
@@ -68,8 +83,8 @@ pub const POLISHING_SWEEPS: usize = 4;
 /// Rotations by less than this angle (radians) are skipped (rounding level).
 pub const MIN_ANGLE: f64 = 1e-12;
 /// Centres of a localized orbital: the fewest atoms whose Mulliken populations add to this.
-/// Common practice, no source: 0.9 keeps EHT lone pairs one-centre and polar bonds
-/// two-centre for the demo molecules.
+/// Our choice, no source: 0.9 keeps EHT lone pairs one-centre and polar bonds two-centre
+/// for the demo molecules (tests/localize_demo.rs).
 pub const CENTRE_SHARE: f64 = 0.9;
 /// A two-centre orbital is labelled π when the norm-weighted mean, over its two atoms, of
 /// the share of the atom's part that is p perpendicular to the bond axis exceeds this.
@@ -108,6 +123,21 @@ pub struct LocalizeOptions {
     /// Extra deterministic starts (fixed rotations of the input orbitals); the best maximum
     /// of all starts is returned. 0: the input orbitals only.
     pub extra_starts: usize,
+    /// The first start: the input orbitals or their Cholesky-localized rotation.
+    pub start: Start,
+}
+
+/// The deterministic first start of [`pipek_mezey`].
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Default, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum Start {
+    /// The input (canonical) orbitals as given.
+    Input,
+    /// Cholesky orbitals: the pivoted Cholesky factor of the density C Cᵀ, Gram–Schmidt
+    /// orthonormalized in pivot order (Aquilante, Bondo Pedersen, Sánchez de Merás and
+    /// Koch, J. Chem. Phys. 125, 174101 (2006)). Already fairly local, so fewer sweeps.
+    #[default]
+    Cholesky,
 }
 
 impl Default for LocalizeOptions {
@@ -116,6 +146,7 @@ impl Default for LocalizeOptions {
             tolerance: DEFAULT_TOLERANCE,
             max_sweeps: DEFAULT_MAX_SWEEPS,
             extra_starts: 0,
+            start: Start::default(),
         }
     }
 }
@@ -179,7 +210,10 @@ pub fn pipek_mezey(
     let mut best: Option<Localized> = None;
     for start in 0..=options.extra_starts {
         let rotation = if start == 0 {
-            DMatrix::identity(n, n)
+            match options.start {
+                Start::Input => DMatrix::identity(n, n),
+                Start::Cholesky => cholesky_start(occupied),
+            }
         } else {
             deterministic_rotation(n, start)
         };
@@ -253,6 +287,71 @@ fn gross_populations(
     q
 }
 
+/// U such that C U are the Cholesky orbitals of the density C Cᵀ (pivots: the largest
+/// remaining diagonal, first on ties), orthonormalized in pivot order. C is S-orthonormal,
+/// so the Cholesky vector L_k = C r_k is represented by r_k = rows of C at the pivot.
+fn cholesky_start(c: &DMatrix<f64>) -> DMatrix<f64> {
+    if c.ncols() < 2 {
+        return DMatrix::identity(c.ncols(), c.ncols());
+    }
+    let (n_ao, n) = (c.nrows(), c.ncols());
+    // Work in the occupied-coefficient space: D = C Cᵀ, so D[:, p] = C c_pᵀ with c_p row p
+    // of C; each Cholesky vector is C r with r = c_pᵀ − Σ_l r_l (L_l)_p, divided by √d_p.
+    let mut r: Vec<nalgebra::DVector<f64>> = Vec::with_capacity(n);
+    let mut l_rows = DMatrix::<f64>::zeros(n_ao, n); // L = C R, kept explicitly
+    let mut diag: Vec<f64> = (0..n_ao).map(|mu| c.row(mu).norm_squared()).collect();
+    for k in 0..n {
+        let mut pivot = 0;
+        for mu in 1..n_ao {
+            if diag[mu] > diag[pivot] + 1e-14 {
+                pivot = mu;
+            }
+        }
+        let d = diag[pivot];
+        if d.is_nan() || d <= 1e-12 {
+            break;
+        }
+        let mut v = c.row(pivot).transpose();
+        for (l, rl) in r.iter().enumerate() {
+            v.axpy(-l_rows[(pivot, l)], rl, 1.0);
+        }
+        v /= d.sqrt();
+        let column = c * &v;
+        for mu in 0..n_ao {
+            diag[mu] -= column[mu] * column[mu];
+        }
+        l_rows.set_column(k, &column);
+        r.push(v);
+    }
+    // Gram–Schmidt of the r vectors (C is S-orthonormal, so plain dot products), then
+    // complete with unit vectors if the factor stopped early.
+    let mut u: Vec<nalgebra::DVector<f64>> = Vec::with_capacity(n);
+    let candidates = r.into_iter().chain((0..n).map(|k| {
+        let mut e = nalgebra::DVector::zeros(n);
+        e[k] = 1.0;
+        e
+    }));
+    for mut v in candidates {
+        if u.len() == n {
+            break;
+        }
+        for _ in 0..2 {
+            for w in &u {
+                let p = w.dot(&v);
+                v.axpy(-p, w, 1.0);
+            }
+        }
+        let norm = v.norm();
+        if norm > 1e-8 {
+            u.push(v / norm);
+        }
+    }
+    if u.len() < n {
+        return DMatrix::identity(n, n);
+    }
+    DMatrix::from_columns(&u)
+}
+
 /// A fixed orthogonal matrix for extra start `seed`: a product of Givens rotations with
 /// angles from a small linear congruential sequence (deterministic, platform independent).
 fn deterministic_rotation(n: usize, seed: usize) -> DMatrix<f64> {
@@ -318,6 +417,7 @@ fn run_jacobi(
     let initial_value = value(&q);
     let mut current = initial_value;
     let mut qij = vec![0.0; atoms];
+    let mut scratch = vec![0.0; n_ao];
     let mut sweeps = 0;
     let mut converged = n < 2;
     let mut polishing = 0;
@@ -335,14 +435,18 @@ fn run_jacobi(
     let mut active: Vec<(usize, usize)> = Vec::new();
     let mut partial_run = 0;
     let mut last_full_gradient = f64::INFINITY;
+    let mut previous_full_gradient;
+    let mut previous_largest_angle: f64 = 0.0;
     while !done && sweeps < options.max_sweeps {
         sweeps += 1;
         let full =
             sweeps <= FULL_SWEEPS_FIRST || partial_run >= PARTIAL_SWEEPS || active.is_empty();
         let before = current;
         let mut largest_gradient: f64 = 0.0;
+        let mut largest_angle: f64 = 0.0;
         let threshold = ACTIVE_FRACTION * last_full_gradient;
         let mut next_active = Vec::new();
+        let angle_floor = SKIP_ANGLE_FRACTION * previous_largest_angle;
         let list = if full { &all_pairs } else { &active };
         for &(i, j) in list {
             {
@@ -352,18 +456,21 @@ fn run_jacobi(
                     &scs[i * n_ao..(i + 1) * n_ao],
                     &scs[j * n_ao..(j + 1) * n_ao],
                 );
+                for (t, (((a, b), c), d)) in
+                    scratch.iter_mut().zip(ci.iter().zip(sj).zip(cj).zip(si))
+                {
+                    *t = a * b + c * d;
+                }
                 qij.iter_mut().for_each(|x| *x = 0.0);
                 for &(atom, lo, hi) in &runs {
-                    qij[atom] += 0.5 * cross(&ci[lo..hi], &sj[lo..hi], &cj[lo..hi], &si[lo..hi]);
+                    qij[atom] += 0.5 * scratch[lo..hi].iter().sum::<f64>();
                 }
             }
-            let (mut a, mut b) = (0.0, 0.0);
-            for atom in 0..atoms {
-                let d = q[i * atoms + atom] - q[j * atoms + atom];
-                let x = qij[atom];
-                a += x * x - 0.25 * d * d;
-                b += x * d;
-            }
+            let (a, b) = pair_terms(
+                &qij,
+                &q[i * atoms..(i + 1) * atoms],
+                &q[j * atoms..(j + 1) * atoms],
+            );
             largest_gradient = largest_gradient.max(b.abs());
             if full && b.abs() > threshold.max(GRADIENT_TOLERANCE) {
                 next_active.push((i, j));
@@ -373,7 +480,8 @@ fn run_jacobi(
                 continue;
             }
             let gamma = 0.25 * b.atan2(-a);
-            if gamma.abs() < MIN_ANGLE {
+            largest_angle = largest_angle.max(gamma.abs());
+            if gamma.abs() < MIN_ANGLE || (!converged && gamma.abs() < angle_floor) {
                 continue;
             }
             let gamma = gamma * omega;
@@ -387,16 +495,11 @@ fn run_jacobi(
                 q[j * atoms + atom] = s2 * qi + c2 * qj - 2.0 * cs * x;
             }
         }
+        previous_largest_angle = largest_angle;
         // Refresh the populations from the orbitals once per sweep (no accumulated drift).
         refresh(&c, &sc, &mut q);
         current = value(&q);
         let gain = current - before;
-        if std::env::var("PM_DEBUG").is_ok() {
-            eprintln!(
-                "sweep {sweeps} full {full} pairs {}: P {current:.14} dP {gain:.2e} maxB {largest_gradient:.2e} omega {omega}",
-                list.len()
-            );
-        }
         if omega == 1.0 && sweeps > FULL_SWEEPS_FIRST {
             omega = relaxation_factor(gains[0], gains[1], gain);
         }
@@ -407,6 +510,7 @@ fn run_jacobi(
         if full {
             partial_run = 0;
             active = next_active;
+            previous_full_gradient = last_full_gradient;
             last_full_gradient = largest_gradient;
             let small_change = gain.abs() < options.tolerance;
             if !converged {
@@ -415,7 +519,11 @@ fn run_jacobi(
                     done = largest_gradient < GRADIENT_TOLERANCE;
                 }
             } else {
-                done = largest_gradient < GRADIENT_TOLERANCE || polishing >= POLISHING_SWEEPS;
+                // Polish only while the gradient falls fast (the quadratic end of Jacobi
+                // convergence); on a slow, linear tail it would take many sweeps.
+                done = largest_gradient < GRADIENT_TOLERANCE
+                    || polishing >= POLISHING_SWEEPS
+                    || largest_gradient > 0.1 * previous_full_gradient;
             }
         } else {
             partial_run += 1;
@@ -447,17 +555,10 @@ fn relaxation_factor(g1: f64, g2: f64, g3: f64) -> f64 {
     }
     let (r1, r2) = (g2 / g1, g3 / g2);
     if r1 > 0.5 && r1 < 1.0 && r2 > 0.5 && r2 < 1.0 {
-        over_relaxation()
+        OVER_RELAXATION
     } else {
         1.0
     }
-}
-
-fn over_relaxation() -> f64 {
-    std::env::var("PM_OMEGA")
-        .ok()
-        .and_then(|v| v.parse().ok())
-        .unwrap_or(OVER_RELAXATION)
 }
 
 /// (atom, start, end) of each run of consecutive basis functions on one atom.
@@ -477,14 +578,33 @@ fn dot(a: &[f64], b: &[f64]) -> f64 {
     a.iter().zip(b).map(|(x, y)| x * y).sum()
 }
 
-/// Σ a·b + c·d over equal-length slices.
+/// A_ij = Σ_A [x_A² − ¼ d_A²] and B_ij = Σ_A x_A d_A with x = Q^ij, d = Q^i − Q^j, summed
+/// with four independent accumulators (no serial dependency chain).
 #[inline]
-fn cross(a: &[f64], b: &[f64], c: &[f64], d: &[f64]) -> f64 {
-    let mut sum = 0.0;
-    for k in 0..a.len().min(b.len()).min(c.len()).min(d.len()) {
-        sum += a[k] * b[k] + c[k] * d[k];
+fn pair_terms(qij: &[f64], qi: &[f64], qj: &[f64]) -> (f64, f64) {
+    let mut xx = [0.0; 4];
+    let mut dd = [0.0; 4];
+    let mut xd = [0.0; 4];
+    let chunks = qij.len() / 4;
+    for k in 0..chunks {
+        for l in 0..4 {
+            let m = 4 * k + l;
+            let x = qij[m];
+            let d = qi[m] - qj[m];
+            xx[l] += x * x;
+            dd[l] += d * d;
+            xd[l] += x * d;
+        }
     }
-    sum
+    for m in 4 * chunks..qij.len() {
+        let x = qij[m];
+        let d = qi[m] - qj[m];
+        xx[0] += x * x;
+        dd[0] += d * d;
+        xd[0] += x * d;
+    }
+    let sum = |v: [f64; 4]| (v[0] + v[1]) + (v[2] + v[3]);
+    (sum(xx) - 0.25 * sum(dd), sum(xd))
 }
 
 /// Columns i < j of two column-major matrices with `rows` rows:
@@ -682,7 +802,10 @@ fn atom_part(b: &nalgebra::DVector<f64>, basis: &Basis, atom: usize) -> (f64, Ve
     let mut p = Vector3::zeros();
     let mut d = 0.0;
     if let Some(range) = basis.atom_ranges.get(atom) {
-        for mu in range.clone() {
+        for mu in range
+            .clone()
+            .filter(|&mu| mu < b.len() && mu < basis.orbitals.len())
+        {
             let c = b[mu];
             match basis.orbitals[mu].kind {
                 AngularKind::S => {
@@ -833,7 +956,9 @@ fn label_for(
     }
 }
 
-/// Localizes the occupied orbitals (occupation > 0) of an extended Hückel result.
+/// Localizes the occupied orbitals (occupation > 0) of an extended Hückel result. For an
+/// open shell the partly filled orbitals are included, so the localized set spans the
+/// occupied space; each localized orbital's electron count is then `Links::occupancy`.
 pub fn localize_occupied(
     eht: &crate::eht::EhtResult,
     options: &LocalizeOptions,

@@ -88,6 +88,12 @@ pub fn hold_non_bonding(
     electrons: usize,
 ) -> Result<HeldSolution, MixingError> {
     let n = s.nrows();
+    if n == 0 || s.ncols() != n || h.nrows() != n || h.ncols() != n {
+        return Err(MixingError::Solve(EhtError::DimensionMismatch {
+            h: (h.nrows(), h.ncols()),
+            s: (s.nrows(), s.ncols()),
+        }));
+    }
     if atom_ranges.iter().map(|r| r.len()).sum::<usize>() != n
         || atom_ranges.iter().any(|r| r.end > n)
     {
@@ -206,6 +212,19 @@ pub fn hold_non_bonding(
         lone_pair_functions: functions,
         lone_pair_energies,
         lone_pair_orbitals,
+    })
+}
+
+/// The part of `orbital` (a vector over the full basis) on the atom whose functions are
+/// `range`, other entries zero: e.g. a localized lone-pair orbital restricted to its centre,
+/// the lone pair's atomic orbital for [`hold_non_bonding`] (which normalizes it).
+pub fn restrict_to_atom(orbital: &DVector<f64>, range: Range<usize>) -> DVector<f64> {
+    DVector::from_fn(orbital.len(), |mu, _| {
+        if range.contains(&mu) {
+            orbital[mu]
+        } else {
+            0.0
+        }
     })
 }
 

@@ -192,3 +192,63 @@ fn bad_lone_pairs_are_typed_errors() {
         assert!((a - b).abs() < 1e-10);
     }
 }
+
+/// The localized model's lone pair: the PM n(N) orbital restricted to nitrogen, held
+/// non-bonding. It gives a level at its own ⟨l|H|l⟩ and leaves the e levels alone (it is
+/// a1 by symmetry).
+#[test]
+fn localized_lone_pair_restricted_to_its_centre() {
+    use diptych::localize::{LocalizeOptions, LocalizedKind, describe, localize_occupied};
+    use diptych::lone_pair_mixing::restrict_to_atom;
+    let path = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("demo_molecules/ammonia.xyz");
+    let text = std::fs::read_to_string(path).expect("demo geometry");
+    let molecule = parse_xyz(&text, "ammonia").expect("valid XYZ").molecule;
+    let eht = run(&molecule, &EhtSettings::default()).expect("EHT runs");
+    let localized = localize_occupied(&eht, &LocalizeOptions::default()).expect("localizes");
+    let d = describe(
+        &localized.orbitals,
+        &eht.overlap,
+        &eht.hamiltonian,
+        &eht.basis,
+        &molecule,
+    )
+    .expect("describe");
+    let k = d
+        .iter()
+        .position(|o| o.kind == LocalizedKind::LonePair)
+        .expect("n(N)");
+    let lp = restrict_to_atom(
+        &localized.orbitals.column(k).clone_owned(),
+        eht.basis.atom_ranges[0].clone(),
+    );
+    let comparison = compare_mixing(&eht, &[lp]).expect("switch");
+    let e = comparison.off.lone_pair_energies[0];
+    assert!(
+        comparison
+            .off
+            .solution
+            .energies
+            .iter()
+            .any(|x| (x - e).abs() < 1e-8)
+    );
+    check_e_unchanged(&comparison);
+}
+
+#[test]
+fn mismatched_matrices_are_typed_errors() {
+    use diptych::lone_pair_mixing::{MixingError, hold_non_bonding};
+    use nalgebra::DMatrix;
+    let h = DMatrix::<f64>::identity(3, 3);
+    let s = DMatrix::<f64>::identity(4, 4);
+    let lp = DVector::from_vec(vec![1.0, 0.0, 0.0, 0.0]);
+    let ranges = [0..2, 2..4];
+    assert!(matches!(
+        hold_non_bonding(&h, &s, &ranges, std::slice::from_ref(&lp), 2),
+        Err(MixingError::Solve(_))
+    ));
+    let h = DMatrix::<f64>::identity(4, 4);
+    assert!(matches!(
+        hold_non_bonding(&h, &s, &[0..1, 1..2], &[lp], 2),
+        Err(MixingError::Ranges { .. })
+    ));
+}

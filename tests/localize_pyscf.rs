@@ -6,7 +6,7 @@
 
 use std::path::PathBuf;
 
-use diptych::localize::{LocalizeOptions, localization_function, pipek_mezey};
+use diptych::localize::{LocalizeOptions, Start, localization_function, pipek_mezey};
 use nalgebra::DMatrix;
 use serde_json::Value;
 
@@ -56,14 +56,25 @@ fn check(name: &str) {
         (p0 - canonical).abs() < 1e-9,
         "{name}: canonical P {p0} vs PySCF {canonical}"
     );
-    // From the canonical start alone (the default).
-    let single = pipek_mezey(&c, &s, &map, &LocalizeOptions::default()).expect("localizes");
+    // From the canonical orbitals as given, and from the default Cholesky start.
+    let input = LocalizeOptions {
+        start: Start::Input,
+        ..Default::default()
+    };
+    let single = pipek_mezey(&c, &s, &map, &input).expect("localizes");
+    let cholesky = pipek_mezey(&c, &s, &map, &LocalizeOptions::default()).expect("localizes");
+    assert!(cholesky.converged);
+    assert!(
+        (cholesky.function_value - reference).abs() < 1e-6,
+        "{name}: Cholesky start P = {} vs PySCF {reference}",
+        cholesky.function_value
+    );
     assert!(
         single.converged,
         "{name}: not converged in {} sweeps",
         single.sweeps
     );
-    // From the canonical start plus two fixed rotated starts (PySCF's own best came from
+    // From the default start plus two fixed rotated starts (PySCF's own best came from
     // several starts too; see the fixture's pm_values_by_start).
     let options = LocalizeOptions {
         extra_starts: 2,
@@ -71,9 +82,11 @@ fn check(name: &str) {
     };
     let best = pipek_mezey(&c, &s, &map, &options).expect("localizes");
     eprintln!(
-        "{name}: PySCF best {reference:.12}, ours canonical start {:.12} ({} sweeps), best of 3 starts {:.12}, |diff| {:.1e}",
+        "{name}: PySCF best {reference:.12}, ours from canonical {:.12} ({} sweeps), from Cholesky {:.12} ({} sweeps), best of 3 starts {:.12}, |diff| {:.1e}",
         single.function_value,
         single.sweeps,
+        cholesky.function_value,
+        cholesky.sweeps,
         best.function_value,
         (best.function_value - reference).abs()
     );
