@@ -199,9 +199,15 @@ impl Analysis {
                 None
             }
         };
+        // The localized-MO model reads its hybrids from the Pipek–Mezey orbitals below; the
+        // geometric model still supplies the lone-pair directions for the switch.
+        let mut hybrid_settings = settings.hybrid.clone();
+        if hybrid_settings.model == crate::hybrid::HybridModel::Localized {
+            hybrid_settings.model = crate::hybrid::HybridModel::Geometric;
+        }
         let hybrids = eht
             .as_ref()
-            .map(|solution| crate::hybrid::analyze(molecule, solution, &settings.hybrid));
+            .map(|solution| crate::hybrid::analyze(molecule, solution, &hybrid_settings));
         if let Some(found) = &hybrids {
             for error in &found.errors {
                 errors.push(StageError {

@@ -129,26 +129,37 @@ pub(super) fn localized_ladder(
             molecule,
         )
         .map_err(|e| e.to_string())?;
+        // Hydrogen's part of a bond is its 1s: no hybrid to report.
+        let has_p = |atom: usize| {
+            molecule
+                .atoms
+                .get(atom)
+                .is_some_and(|a| a.element.period() > 1)
+        };
         let entries = described
             .iter()
             .flat_map(|orbital| {
-                orbital.hybrids.iter().map(|hybrid| HybridEntry {
-                    center: hybrid.atom,
-                    partner: hybrid.partner,
-                    kind: if hybrid.partner.is_some() {
-                        "bond"
-                    } else {
-                        "lone_pair"
-                    }
-                    .into(),
-                    lambda: hybrid.lambda,
-                    s_percent: 100.0 * hybrid.s_share,
-                    p_percent: 100.0 * hybrid.p_share,
-                    energy_ev: None,
-                    bending_degrees: hybrid.bending_deg,
-                    direction: hybrid.direction.map_or([0.0; 3], |d| [d.x, d.y, d.z]),
-                    model: "localized".into(),
-                })
+                orbital
+                    .hybrids
+                    .iter()
+                    .filter(|h| has_p(h.atom))
+                    .map(|hybrid| HybridEntry {
+                        center: hybrid.atom,
+                        partner: hybrid.partner,
+                        kind: if hybrid.partner.is_some() {
+                            "bond"
+                        } else {
+                            "lone_pair"
+                        }
+                        .into(),
+                        lambda: hybrid.lambda,
+                        s_percent: 100.0 * hybrid.s_share,
+                        p_percent: 100.0 * hybrid.p_share,
+                        energy_ev: None,
+                        bending_degrees: hybrid.bending_deg,
+                        direction: hybrid.direction.map_or([0.0; 3], |d| [d.x, d.y, d.z]),
+                        model: "localized".into(),
+                    })
             })
             .collect();
         let ladder = described
