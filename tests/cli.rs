@@ -26,17 +26,7 @@ fn demo_files() -> Vec<PathBuf> {
 
 #[test]
 fn ammonia_json_has_four_atoms_and_eight_electrons() {
-    let output = diptych()
-        .args(["analyze", "demo_molecules/ammonia.xyz", "--format", "json"])
-        .current_dir(repository())
-        .output()
-        .unwrap();
-    assert!(
-        output.status.success(),
-        "{}",
-        String::from_utf8_lossy(&output.stderr)
-    );
-    let json: serde_json::Value = serde_json::from_slice(&output.stdout).expect("valid JSON");
+    let json = ammonia_json(&[]);
     assert_eq!(json["molecule"]["atoms"].as_array().map(Vec::len), Some(4));
     assert_eq!(json["electrons"], 8);
     assert_eq!(json["molecule"]["formula"], "H3N");
@@ -231,12 +221,7 @@ fn point_groups_of_textbook_molecules() {
 
 #[test]
 fn ammonia_json_lists_seven_labelled_valence_orbitals() {
-    let output = diptych()
-        .args(["analyze", "demo_molecules/ammonia.xyz", "--format", "json"])
-        .current_dir(repository())
-        .output()
-        .unwrap();
-    let json: serde_json::Value = serde_json::from_slice(&output.stdout).unwrap();
+    let json = ammonia_json(&[]);
     let orbitals = json["orbitals"].as_array().unwrap();
     assert_eq!(orbitals.len(), 7);
     let electrons: f64 = orbitals
