@@ -152,6 +152,8 @@ pub struct Analysis {
     pub symmetry: Option<Symmetry>,
     /// Irreps of the central atom's orbitals and of the ligand SALCs.
     pub symmetry_summary: Option<SymmetrySummary>,
+    /// The geometry averaged over the point group (exactly symmetric), for Symmetrize.
+    pub symmetrized: Option<Molecule>,
     /// The extended Hückel solution, unless that stage failed.
     pub eht: Option<EhtResult>,
     /// The canonical MOs in ascending energy (empty if the MO stage failed).
@@ -189,6 +191,9 @@ impl Analysis {
         let symmetry_summary = symmetry
             .as_ref()
             .map(|found| symmetry::summarize(found, molecule));
+        let symmetrized = symmetry
+            .as_ref()
+            .map(|found| symmetry::symmetrize(molecule, found));
         let eht = match eht::run(molecule, &settings.eht) {
             Ok(result) => Some(result),
             Err(error) => {
@@ -277,6 +282,7 @@ impl Analysis {
             formula: molecule.formula(),
             symmetry,
             symmetry_summary,
+            symmetrized,
             eht,
             orbitals,
             hybrids,

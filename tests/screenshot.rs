@@ -78,3 +78,25 @@ fn ammonia_screenshot_shows_the_molecule() {
     let nitrogen = pixels.iter().filter(|p| p[..3] == [88, 118, 176]).count();
     assert!(nitrogen > 500, "nitrogen ball covers {nitrogen} pixels");
 }
+
+#[test]
+fn screenshots_of_demo_molecules_are_not_blank() {
+    let folder = tempfile::tempdir().unwrap();
+    for molecule in ["water.xyz", "ethylene.xyz", "cyclopropane.xyz"] {
+        let out = folder.path().join(molecule.replace(".xyz", ".png"));
+        if screenshot(molecule, &out).is_none() {
+            return;
+        }
+        let (width, height, pixels) = decode(&out);
+        assert!(
+            width >= 800 && height >= 600,
+            "{molecule}: {width}×{height}"
+        );
+        let distinct: HashSet<[u8; 4]> = pixels.iter().copied().collect();
+        assert!(
+            distinct.len() > 50,
+            "{molecule}: only {} colours",
+            distinct.len()
+        );
+    }
+}

@@ -110,7 +110,10 @@ impl DiptychApp {
     }
 
     fn structure_panel(&mut self, ui: &mut egui::Ui) {
-        ui.heading("Structure");
+        ui.horizontal(|ui| {
+            ui.heading("Structure");
+            self.point_group_badge(ui);
+        });
         let highlight = self.state.atom_weights_of_focused_level();
         let events = structure_view::show(
             ui,
@@ -123,6 +126,42 @@ impl DiptychApp {
             self.state.selected_atom = Some(atom);
         } else if events.clicked_background {
             self.state.selected_atom = None;
+        }
+    }
+
+    /// Point group, tolerance and the Symmetrize action (the averaged geometry comes from
+    /// the analysis; applying it is an ordinary, undoable edit).
+    fn point_group_badge(&mut self, ui: &mut egui::Ui) {
+        let Some(analysis) = &self.state.analysis else {
+            return;
+        };
+        let group = analysis.symmetry.as_ref().map_or_else(
+            || "point group unknown".to_string(),
+            |found| found.group.to_string(),
+        );
+        ui.label(egui::RichText::new(group).strong().color(theme::ACCENT))
+            .on_hover_text(format!(
+                "Point group within {} Å (Settings ▸ Method options)",
+                self.state.project.settings.symmetry.tolerance
+            ));
+        let symmetrized = analysis.symmetrized.clone();
+        // Worth offering only when some atom would move noticeably (beyond rounding).
+        let needed = symmetrized.as_ref().is_some_and(|ideal| {
+            ideal
+                .atoms
+                .iter()
+                .zip(&self.state.project.molecule.atoms)
+                .any(|(a, b)| (a.position - b.position).norm() > 1e-7)
+        });
+        if ui
+            .add_enabled(needed, egui::Button::new("Symmetrize"))
+            .on_hover_text(
+                "Average the geometry over the point group so that it is exactly symmetric",
+            )
+            .clicked()
+            && let Some(ideal) = symmetrized
+        {
+            self.state.project.molecule.atoms = ideal.atoms;
         }
     }
 

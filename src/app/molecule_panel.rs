@@ -40,9 +40,9 @@ pub fn summary(ui: &mut egui::Ui, state: &mut AppState) {
     }
 }
 
-/// The selected atom's position, bonds and angles, or a hint.
-pub fn selected_atom(ui: &mut egui::Ui, state: &AppState) {
-    let molecule = &state.project.molecule;
+/// The selected atom's position, bonds and angles (editable), or a hint.
+pub fn selected_atom(ui: &mut egui::Ui, state: &mut AppState) {
+    let molecule = &mut state.project.molecule;
     match state.selected_atom.filter(|&index| index < molecule.len()) {
         Some(index) => atom_details(ui, molecule, index),
         None => {
@@ -51,43 +51,88 @@ pub fn selected_atom(ui: &mut egui::Ui, state: &AppState) {
     }
 }
 
-fn atom_details(ui: &mut egui::Ui, molecule: &Molecule, index: usize) {
-    let atom = &molecule.atoms[index];
+fn atom_details(ui: &mut egui::Ui, molecule: &mut Molecule, index: usize) {
+    let element = molecule.atoms[index].element;
+    let position = molecule.atoms[index].position;
     ui.strong(format!(
         "Atom {index}: {} ({})",
-        atom.element.name(),
-        atom.element.symbol()
+        element.name(),
+        element.symbol()
     ));
     ui.label(format!(
         "x {:.4}  y {:.4}  z {:.4} Å",
-        atom.position.x, atom.position.y, atom.position.z
+        position.x, position.y, position.z
     ));
     let neighbours = molecule.neighbours(index);
     if neighbours.is_empty() {
         ui.label("No bonded neighbours.");
         return;
     }
-    ui.label("Bonds");
-    for &other in &neighbours {
-        let order = molecule.bond(index, other).map_or(1, |bond| bond.order);
-        if let Ok(distance) = molecule.distance(index, other) {
-            ui.label(format!(
-                "  –{}{other}  {distance:.4} Å  (order {order})",
-                molecule.atoms[other].element
-            ));
-        }
-    }
-    if neighbours.len() >= 2 {
-        ui.label("Angles at this atom");
-        for (n, &a) in neighbours.iter().enumerate() {
-            for &b in &neighbours[n + 1..] {
-                if let Ok(angle) = molecule.angle(a, index, b) {
-                    ui.label(format!(
-                        "  {}{a}–{}{index}–{}{b}  {angle:.2}°",
-                        molecule.atoms[a].element, atom.element, molecule.atoms[b].element
-                    ));
+    ui.label("Bonds (Å; the smaller fragment moves)");
+    let mut message = None;
+    egui::Grid::new("bond lengths")
+        .num_columns(2)
+        .show(ui, |ui| {
+            for &other in &neighbours {
+                let order = molecule.bond(index, other).map_or(1, |bond| bond.order);
+                let Ok(mut distance) = molecule.distance(index, other) else {
+                    continue;
+                };
+                let name = format!(
+                    "{element}{index}–{}{other} (order {order})",
+                    molecule.atoms[other].element
+                );
+                let label = ui.label(&name);
+                let response = ui
+                    .add(
+                        egui::DragValue::new(&mut distance)
+                            .range(0.5..=5.0)
+                            .speed(0.005)
+                            .max_decimals(4),
+                    )
+                    .labelled_by(label.id);
+                if response.changed()
+                    && let Err(error) = molecule.set_distance(index, other, distance)
+                {
+                    message = Some(error.to_string());
                 }
+                ui.end_row();
             }
-        }
+        });
+    if neighbours.len() >= 2 {
+        ui.label("Angles at this atom (°)");
+        egui::Grid::new("bond angles")
+            .num_columns(2)
+            .show(ui, |ui| {
+                for (n, &a) in neighbours.iter().enumerate() {
+                    for &b in &neighbours[n + 1..] {
+                        let Ok(mut angle) = molecule.angle(a, index, b) else {
+                            continue;
+                        };
+                        let name = format!(
+                            "{}{a}–{element}{index}–{}{b}",
+                            molecule.atoms[a].element, molecule.atoms[b].element
+                        );
+                        let label = ui.label(&name);
+                        let response = ui
+                            .add(
+                                egui::DragValue::new(&mut angle)
+                                    .range(1.0..=180.0)
+                                    .speed(0.2)
+                                    .max_decimals(2),
+                            )
+                            .labelled_by(label.id);
+                        if response.changed()
+                            && let Err(error) = molecule.set_angle(a, index, b, angle)
+                        {
+                            message = Some(error.to_string());
+                        }
+                        ui.end_row();
+                    }
+                }
+            });
+    }
+    if let Some(message) = message {
+        ui.colored_label(ui.visuals().error_fg_color, message);
     }
 }

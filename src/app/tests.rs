@@ -259,3 +259,81 @@ fn the_lone_pair_switch_moves_the_lone_pair_level() {
     assert!((after + 13.4).abs() < 1e-6, "{after}");
     assert!((after - before).abs() > 0.1);
 }
+
+#[test]
+fn editing_a_bond_angle_reshapes_the_molecule_and_is_undoable() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    harness.state_mut().state.selected_atom = Some(0);
+    harness.run_steps(2);
+    let field = "H1–N0–H2";
+    harness.get_by_label(field).click();
+    harness.run_steps(1);
+    harness.get_by_label(field).type_text("100");
+    harness.key_press(egui::Key::Enter);
+    harness.run_steps(2);
+    wait_for_analysis(&mut harness);
+    let angle = harness
+        .state()
+        .state
+        .project
+        .molecule
+        .angle(1, 0, 2)
+        .unwrap();
+    assert!((angle - 100.0).abs() < 1e-6, "{angle}");
+    // H2 turned within the H1–N–H2 plane: the three H–N–H angles now all differ, which
+    // leaves no symmetry element (C1).
+    let group = harness
+        .state()
+        .state
+        .analysis
+        .as_ref()
+        .unwrap()
+        .symmetry
+        .as_ref()
+        .unwrap()
+        .group
+        .to_string();
+    assert_eq!(group, "C1");
+    harness.get_by_label("Inspector").click();
+    harness.run_steps(1);
+    harness.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    harness.run_steps(1);
+    wait_for_analysis(&mut harness);
+    let angle = harness
+        .state()
+        .state
+        .project
+        .molecule
+        .angle(1, 0, 2)
+        .unwrap();
+    assert!(
+        (angle - 106.7).abs() < 1e-6,
+        "undo restores 106.7°, got {angle}"
+    );
+}
+
+#[test]
+fn symmetrize_makes_a_slightly_distorted_molecule_exact() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    {
+        let state = &mut harness.state_mut().state;
+        state.project.molecule.atoms[1].position.x += 0.003;
+        state.document_changed();
+    }
+    wait_for_analysis(&mut harness);
+    harness.get_by_label("Symmetrize").click();
+    harness.run_steps(2);
+    wait_for_analysis(&mut harness);
+    let molecule = &harness.state().state.project.molecule;
+    let lengths: Vec<f64> = (1..4).map(|h| molecule.distance(0, h).unwrap()).collect();
+    assert!(
+        (lengths[0] - lengths[1]).abs() < 1e-9 && (lengths[1] - lengths[2]).abs() < 1e-9,
+        "{lengths:?}"
+    );
+    assert!(
+        harness.state().state.history.can_undo(),
+        "Symmetrize is an undoable edit"
+    );
+}
