@@ -16,6 +16,10 @@ const AXIS_X: f64 = 60.0;
 const LADDER_SPANS: [(f64, f64); 2] = [(240.0, 440.0), (580.0, 780.0)];
 const BAR_WIDTH: f64 = 56.0;
 const BAR_GAP: f64 = 10.0;
+/// Extra space between two different sets drawn in one row.
+const GROUP_GAP: f64 = 22.0;
+/// Sets closer than this vertically (layout units) are drawn in one row.
+const ROW_MERGE: f64 = 8.0;
 /// Smallest vertical distance between two labels of one ladder.
 pub const LABEL_SPACING: f64 = 15.0;
 
@@ -253,12 +257,49 @@ fn place_ladder(input: &LadderInput, span: (f64, f64), side: usize, min: f64, ma
         .map(|l| l.energy_ev)
         .fold(f64::INFINITY, f64::min);
     let centre = (span.0 + span.1) / 2.0;
+    // Sets whose bars would touch vertically share a row and are placed side by side; a
+    // row wider than the ladder gets narrower bars.
+    let mut order: Vec<usize> = (0..groups.len()).collect();
+    order.sort_by(|&a, &b| {
+        groups[a].1[0]
+            .energy_ev
+            .total_cmp(&groups[b].1[0].energy_ev)
+    });
+    let mut rows: Vec<Vec<usize>> = Vec::new();
+    for index in order {
+        let y = y_of(groups[index].1[0].energy_ev, min, max);
+        match rows.last_mut() {
+            Some(row) if (y_of(groups[row[0]].1[0].energy_ev, min, max) - y).abs() < ROW_MERGE => {
+                row.push(index)
+            }
+            _ => rows.push(vec![index]),
+        }
+    }
+    let mut x_of_member: Vec<Vec<f64>> = groups.iter().map(|(_, m)| vec![0.0; m.len()]).collect();
+    let mut bar_of_group = vec![BAR_WIDTH; groups.len()];
+    for row in &rows {
+        let bars: usize = row.iter().map(|&g| groups[g].1.len()).sum();
+        let base_gaps = bars.saturating_sub(1) as f64 * BAR_GAP
+            + row.len().saturating_sub(1) as f64 * GROUP_GAP;
+        // Bars and gaps shrink together so that the row fits the ladder's width.
+        let fitted = (span.1 - span.0) / (bars as f64 + base_gaps / BAR_WIDTH);
+        let bar = BAR_WIDTH.min(fitted);
+        let scale = bar / BAR_WIDTH;
+        let total = bars as f64 * bar + base_gaps * scale;
+        let mut x = centre - total / 2.0;
+        for &g in row {
+            bar_of_group[g] = bar;
+            for slot in x_of_member[g].iter_mut() {
+                *slot = x;
+                x += bar + BAR_GAP * scale;
+            }
+            x += (GROUP_GAP - BAR_GAP) * scale;
+        }
+    }
     let mut levels = Vec::new();
-    for (_, members) in &groups {
-        let count = members.len() as f64;
-        let total = count * BAR_WIDTH + (count - 1.0) * BAR_GAP;
+    for (g, (_, members)) in groups.iter().enumerate() {
         for (n, member) in members.iter().enumerate() {
-            let x_left = centre - total / 2.0 + n as f64 * (BAR_WIDTH + BAR_GAP);
+            let x_left = x_of_member[g][n];
             let y = y_of(member.energy_ev, min, max);
             levels.push(Level {
                 key: member.key,
@@ -267,7 +308,7 @@ fn place_ladder(input: &LadderInput, span: (f64, f64), side: usize, min: f64, ma
                 occupancy: member.occupancy,
                 label: member.label.clone(),
                 x_left,
-                x_right: x_left + BAR_WIDTH,
+                x_right: x_left + bar_of_group[g],
                 y,
                 label_x: 0.0,
                 label_y: y,
@@ -441,6 +482,37 @@ mod tests {
             left.levels.iter().filter(|l| l.is_lumo).count(),
             1,
             "one tag per set"
+        );
+    }
+
+    #[test]
+    fn sets_at_nearly_the_same_energy_share_a_row_without_overlap() {
+        let mut ladders = ammonia_like();
+        // Six equivalent bonds and three others 0.005 eV away (cyclopropane's C–H and C–C).
+        ladders[1].levels = (0..9)
+            .map(|k| {
+                level(
+                    if k < 6 { -18.645 } else { -18.650 },
+                    2.0,
+                    if k < 6 { 30 } else { 31 },
+                    30 + k,
+                )
+            })
+            .collect();
+        let diagram = layout(&ladders, &[], 8.0);
+        let mut bars: Vec<(f64, f64)> = diagram.ladders[1]
+            .levels
+            .iter()
+            .map(|l| (l.x_left, l.x_right))
+            .collect();
+        bars.sort_by(|a, b| a.0.total_cmp(&b.0));
+        for pair in bars.windows(2) {
+            assert!(pair[0].1 <= pair[1].0 + 1e-9, "bars overlap: {pair:?}");
+        }
+        let (span_left, span_right) = LADDER_SPANS[1];
+        assert!(
+            bars[0].0 >= span_left - 1e-9 && bars[8].1 <= span_right + 1e-9,
+            "inside the ladder"
         );
     }
 
