@@ -12,6 +12,7 @@ use super::state::AppState;
 pub enum DialogAnswer {
     Open(PathBuf),
     SaveAs(PathBuf),
+    ExportSvg(PathBuf),
 }
 
 /// Open dialogs in flight.
@@ -56,12 +57,27 @@ impl Dialogs {
         });
     }
 
+    pub fn ask_export_svg(&self, suggested: String) {
+        let sender = self.sender.clone();
+        std::thread::spawn(move || {
+            let picked = rfd::FileDialog::new()
+                .set_title("Export the diagram as SVG")
+                .set_file_name(format!("{suggested}.svg"))
+                .add_filter("SVG image", &["svg"])
+                .save_file();
+            if let Some(path) = picked {
+                let _ = sender.send(DialogAnswer::ExportSvg(path));
+            }
+        });
+    }
+
     /// Applies the answers that arrived.
     pub fn apply(&self, state: &mut AppState) {
         for answer in self.receiver.try_iter() {
             match answer {
                 DialogAnswer::Open(path) => state.open(path),
                 DialogAnswer::SaveAs(path) => state.save_to(path),
+                DialogAnswer::ExportSvg(path) => state.export_svg(path),
             }
         }
     }
@@ -81,6 +97,10 @@ pub fn handle_shortcuts(ui: &egui::Ui, state: &mut AppState, dialogs: &Dialogs) 
     let save_as = KeyboardShortcut::new(Modifiers::COMMAND | Modifiers::SHIFT, Key::S);
     let save_shortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::S);
     let open = KeyboardShortcut::new(Modifiers::COMMAND, Key::O);
+    let export = KeyboardShortcut::new(Modifiers::COMMAND, Key::E);
+    if ui.input_mut(|input| input.consume_shortcut(&export)) {
+        dialogs.ask_export_svg(state.project.molecule.name.clone());
+    }
     // The longer shortcut is consumed first so that Ctrl+Shift+S is not read as Ctrl+S.
     if ui.input_mut(|input| input.consume_shortcut(&save_as)) {
         dialogs.ask_save_as(state.project.molecule.name.clone());
@@ -115,6 +135,17 @@ pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
             }
             if ui.button("Save project as…  (Ctrl+Shift+S)").clicked() {
                 dialogs.ask_save_as(state.project.molecule.name.clone());
+                ui.close();
+            }
+            ui.separator();
+            if ui
+                .add_enabled(
+                    state.diagram.is_some(),
+                    egui::Button::new("Export diagram as SVG…  (Ctrl+E)"),
+                )
+                .clicked()
+            {
+                dialogs.ask_export_svg(state.project.molecule.name.clone());
                 ui.close();
             }
         });

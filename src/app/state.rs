@@ -273,6 +273,28 @@ impl AppState {
         }
     }
 
+    /// Writes the diagram on screen as a standalone SVG file (atomically).
+    pub fn export_svg(&mut self, path: PathBuf) {
+        let Some(diagram) = &self.diagram else {
+            self.error_dialog = Some("There is no diagram to export yet.".into());
+            return;
+        };
+        let options = diptych::diagram::SvgOptions {
+            show_energies: self.project.view.show_energies,
+            ..Default::default()
+        };
+        let svg = diptych::diagram::to_svg(diagram, &options);
+        match diptych::chem::io::write_atomically(&path, svg.as_bytes()) {
+            Ok(()) => self.status = format!("Exported {}", path.display()),
+            Err(error) => {
+                self.error_dialog = Some(format!(
+                    "Could not export the diagram.\n\n{}: {error}",
+                    path.display()
+                ))
+            }
+        }
+    }
+
     /// The path to save to without asking, if the document came from a project file.
     pub fn project_path(&self) -> Option<PathBuf> {
         self.path

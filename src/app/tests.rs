@@ -337,3 +337,27 @@ fn symmetrize_makes_a_slightly_distorted_molecule_exact() {
         "Symmetrize is an undoable edit"
     );
 }
+
+#[test]
+fn exporting_writes_the_diagram_on_screen_as_svg() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    let folder = tempfile::tempdir().unwrap();
+    let path = folder.path().join("nh3.svg");
+    harness.state_mut().state.project.titles.localized = "Bonds & <lone> pairs".into();
+    harness.state_mut().state.rebuild_diagram();
+    harness.state_mut().state.export_svg(path.clone());
+    let svg = std::fs::read_to_string(&path).unwrap();
+    assert!(svg.starts_with("<?xml"));
+    assert!(svg.contains("Bonds &amp; &lt;lone&gt; pairs"));
+    assert!(
+        svg.contains("<tspan>3a</tspan>"),
+        "the 3a1 label with its subscript"
+    );
+    // An unwritable place gives an error dialog, not a panic.
+    harness
+        .state_mut()
+        .state
+        .export_svg(folder.path().join("no/such/folder/x.svg"));
+    assert!(harness.state().state.error_dialog.is_some());
+}
