@@ -1,19 +1,50 @@
 //! Undo and redo for every edit of the document: snapshots of the whole project, taken by
 //! comparing the document before and after each frame, so no edit can bypass the history.
-//! Bursts of typing in one text field are merged into one step.
+//! Bursts (typing a title, dragging a slider) are merged into one step.
 
 use diptych::project::Project;
 
 /// Most steps kept; older ones are dropped.
 const MAX_STEPS: usize = 200;
-/// Changes closer together than this (s) that touch only the titles merge into one step.
+/// Changes of one burst kind closer together than this (s) merge into one step.
 const MERGE_WINDOW: f64 = 1.0;
 
 #[derive(Default)]
 pub struct History {
     undo: Vec<Project>,
     redo: Vec<Project>,
-    last_title_edit: Option<f64>,
+    /// Kind and time of the last recorded change, for merging bursts.
+    last_burst: Option<(Burst, f64)>,
+}
+
+/// Changes that come in bursts (typing a title, dragging a slider or a number) and are
+/// merged into one undo step when they follow each other closely.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+enum Burst {
+    Titles,
+    Geometry,
+}
+
+fn burst_of(before: &Project, after: &Project) -> Option<Burst> {
+    let same_except_titles = Project {
+        titles: after.titles.clone(),
+        ..before.clone()
+    } == *after;
+    if before.titles != after.titles && same_except_titles {
+        return Some(Burst::Titles);
+    }
+    let same_atoms_kinds = before.molecule.atoms.len() == after.molecule.atoms.len()
+        && before
+            .molecule
+            .atoms
+            .iter()
+            .zip(&after.molecule.atoms)
+            .all(|(a, b)| a.element == b.element);
+    let mut moved = before.clone();
+    for (atom, new) in moved.molecule.atoms.iter_mut().zip(&after.molecule.atoms) {
+        atom.position = new.position;
+    }
+    (same_atoms_kinds && moved == *after).then_some(Burst::Geometry)
 }
 
 /// What changed between two states of the document.
@@ -39,13 +70,12 @@ pub fn classify(before: &Project, after: &Project) -> Change {
 impl History {
     /// Records `before` as an undo step for a change made at time `now` (seconds).
     pub fn record(&mut self, before: Project, after: &Project, now: f64) {
-        let titles_only = before.titles != after.titles
-            && Project {
-                titles: after.titles.clone(),
-                ..before.clone()
-            } == *after;
-        let merge = titles_only && self.last_title_edit.is_some_and(|t| now - t < MERGE_WINDOW);
-        self.last_title_edit = titles_only.then_some(now);
+        let burst = burst_of(&before, after);
+        let merge = burst.is_some()
+            && self
+                .last_burst
+                .is_some_and(|(kind, time)| Some(kind) == burst && now - time < MERGE_WINDOW);
+        self.last_burst = burst.map(|kind| (kind, now));
         self.redo.clear();
         if merge {
             return;
@@ -60,14 +90,14 @@ impl History {
     pub fn undo(&mut self, current: &Project) -> Option<Project> {
         let previous = self.undo.pop()?;
         self.redo.push(current.clone());
-        self.last_title_edit = None;
+        self.last_burst = None;
         Some(previous)
     }
 
     pub fn redo(&mut self, current: &Project) -> Option<Project> {
         let next = self.redo.pop()?;
         self.undo.push(current.clone());
-        self.last_title_edit = None;
+        self.last_burst = None;
         Some(next)
     }
 

@@ -1,6 +1,7 @@
 //! The eframe desktop shell (DESIGN §2): menu bar, Structure panel, Diagram panel,
 //! Inspector, status bar. It renders results of `Analysis::run` and computes no chemistry.
 
+mod builder;
 mod diagram_view;
 mod history;
 mod inspector;
@@ -114,6 +115,12 @@ impl DiptychApp {
             ui.heading("Structure");
             self.point_group_badge(ui);
         });
+        builder::show(ui, &mut self.state);
+        if ui.input(|input| input.key_pressed(egui::Key::Delete))
+            && !ui.ctx().egui_wants_keyboard_input()
+        {
+            builder::delete_selected(&mut self.state);
+        }
         let highlight = self.state.atom_weights_of_focused_level();
         let events = structure_view::show(
             ui,
@@ -141,7 +148,7 @@ impl DiptychApp {
         );
         ui.label(egui::RichText::new(group).strong().color(theme::ACCENT))
             .on_hover_text(format!(
-                "Point group within {} Å (Settings ▸ Method options)",
+                "Point group within {} Å (Settings, Method options)",
                 self.state.project.settings.symmetry.tolerance
             ));
         let symmetrized = analysis.symmetrized.clone();

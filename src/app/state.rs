@@ -11,6 +11,7 @@ use diptych::diagram::{Diagram, DiagramOptions, diagram_for};
 use diptych::project::{Opened, Project, open_path};
 use eframe::egui;
 
+use super::builder::BuilderState;
 use super::diagram_view::LevelRef;
 use super::history::{Change, History, classify};
 use super::structure_view::Camera;
@@ -40,6 +41,7 @@ pub struct AppState {
     pub diagram: Option<Diagram>,
     pub camera: Camera,
     pub history: History,
+    pub builder: BuilderState,
     /// Whether the Settings window is shown.
     pub settings_open: bool,
     /// Set by undo/redo: this frame's change is a history step, not a new edit.
@@ -92,6 +94,7 @@ impl AppState {
             diagram: None,
             camera: Camera::default(),
             history: History::default(),
+            builder: BuilderState::default(),
             settings_open: false,
             navigated_history: false,
             status,
@@ -246,6 +249,7 @@ impl AppState {
                 };
                 self.path = Some(path);
                 self.history.clear();
+                self.builder.template_live = false;
                 self.selected_atom = None;
                 self.selected_level = None;
                 self.camera = Camera::facing(&self.project.molecule);

@@ -361,3 +361,69 @@ fn exporting_writes_the_diagram_on_screen_as_svg() {
         .export_svg(folder.path().join("no/such/folder/x.svg"));
     assert!(harness.state().state.error_dialog.is_some());
 }
+
+#[test]
+fn flattening_a_pyramidal_template_moves_the_lone_pair_level() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    harness.get_by_label("Build").click();
+    harness.run_steps(2);
+    harness.get_by_label("Apply template").click();
+    harness.run_steps(2);
+    wait_for_analysis(&mut harness);
+    let homo = |harness: &Harness<'static, DiptychApp>| {
+        let analysis = harness.state().state.analysis.as_ref().unwrap();
+        analysis
+            .orbitals
+            .iter()
+            .rfind(|o| o.occupancy > 0.0)
+            .unwrap()
+            .clone()
+    };
+    let pyramidal = homo(&harness);
+    assert_eq!(pyramidal.label.as_deref(), Some("3a1"));
+    // Flatten to 120°: Walsh (J. Chem. Soc. 1953, from memory) — the lone pair rises and
+    // becomes a pure p level (1a2″ in D3h).
+    harness.state_mut().state.builder.angle = 120.0;
+    harness.get_by_label("Apply template").click();
+    harness.run_steps(2);
+    wait_for_analysis(&mut harness);
+    let planar = homo(&harness);
+    assert_eq!(planar.label.as_deref(), Some("1a2''"), "{planar:?}");
+    assert!(planar.energy_ev > pyramidal.energy_ev);
+    let group = harness
+        .state()
+        .state
+        .analysis
+        .as_ref()
+        .unwrap()
+        .symmetry
+        .as_ref()
+        .unwrap()
+        .group
+        .to_string();
+    assert_eq!(group, "D3h");
+}
+
+#[test]
+fn builder_adds_and_deletes_atoms_with_undo() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    harness.get_by_label("Build").click();
+    harness.run_steps(2);
+    harness.state_mut().state.selected_atom = Some(1);
+    harness.run_steps(1);
+    harness.get_by_label("Delete atom").click();
+    harness.run_steps(2);
+    wait_for_analysis(&mut harness);
+    assert_eq!(harness.state().state.project.molecule.formula(), "H2N");
+    assert_eq!(
+        harness.state().state.analysis.as_ref().unwrap().electrons,
+        7,
+        "NH2 radical"
+    );
+    harness.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::Z);
+    harness.run_steps(1);
+    wait_for_analysis(&mut harness);
+    assert_eq!(harness.state().state.project.molecule.formula(), "H3N");
+}

@@ -4,6 +4,7 @@ pub mod ao;
 pub mod element;
 pub mod io;
 pub mod molecule;
+pub mod templates;
 
 pub use element::{Element, ElementError};
 pub use molecule::{Atom, Bond, Molecule, MoleculeError};

@@ -515,6 +515,77 @@ impl Molecule {
         }
     }
 
+    /// Removes atom `index` and its bonds; later atoms shift down by one.
+    pub fn remove_atom(&mut self, index: usize) -> Result<(), MoleculeError> {
+        self.check_indices(&[index])?;
+        self.atoms.remove(index);
+        self.bonds.retain(|bond| bond.a != index && bond.b != index);
+        for bond in &mut self.bonds {
+            if bond.a > index {
+                bond.a -= 1;
+            }
+            if bond.b > index {
+                bond.b -= 1;
+            }
+        }
+        Ok(())
+    }
+
+    /// Adds an atom of `element` bonded to `anchor`, at the sum of the covalent radii,
+    /// along the anchor's free valence direction (away from its existing bonds; common
+    /// practice, no source). Returns the new atom's index.
+    pub fn add_bonded_atom(
+        &mut self,
+        anchor: usize,
+        element: Element,
+    ) -> Result<usize, MoleculeError> {
+        self.check_indices(&[anchor])?;
+        let centre = self.atoms[anchor].position;
+        let units: Vec<Vector3<f64>> = self
+            .neighbours(anchor)
+            .iter()
+            .map(|&n| self.atoms[n].position - centre)
+            .filter(|v| v.norm() > 1e-9)
+            .map(|v| v.normalize())
+            .collect();
+        let sum: Vector3<f64> = units.iter().sum();
+        let direction = if units.is_empty() {
+            Vector3::x()
+        } else if sum.norm() > 0.1 {
+            -sum.normalize()
+        } else if units.len() == 1 {
+            any_perpendicular(&units[0])
+        } else {
+            // Bonds that cancel (linear or planar-symmetric): go perpendicular to them.
+            let normal = units[0].cross(&units[1]);
+            if normal.norm() > 1e-6 {
+                normal.normalize()
+            } else {
+                any_perpendicular(&units[0])
+            }
+        };
+        let length = self.atoms[anchor].element.covalent_radius() + element.covalent_radius();
+        self.atoms.push(Atom {
+            element,
+            position: centre + direction * length,
+        });
+        let index = self.atoms.len() - 1;
+        self.bonds.push(Bond::new(anchor, index, 1));
+        Ok(index)
+    }
+
+    /// Changes the element of atom `index`; bond orders are perceived again from the
+    /// usual valences.
+    pub fn set_element(&mut self, index: usize, element: Element) -> Result<(), MoleculeError> {
+        self.check_indices(&[index])?;
+        self.atoms[index].element = element;
+        for bond in &mut self.bonds {
+            bond.order = 1;
+        }
+        self.perceive_bond_orders();
+        Ok(())
+    }
+
     /// Moves every atom by `shift` Å.
     pub fn translate(&mut self, shift: Vector3<f64>) {
         for atom in &mut self.atoms {
@@ -717,6 +788,24 @@ mod tests {
         let mut m = methane();
         m.perceive_bond_orders();
         assert!(m.bonds.iter().all(|b| b.order == 1));
+    }
+
+    #[test]
+    fn builder_edits_keep_bonds_consistent() {
+        let mut m = methane();
+        let extra = m.add_bonded_atom(1, Element::H).unwrap();
+        // Along the C–H1 axis, away from carbon, at r(H) + r(H) (Cordero 2008).
+        let along = (m.atoms[extra].position - m.atoms[1].position).normalize();
+        let axis = (m.atoms[1].position - m.atoms[0].position).normalize();
+        assert!((along.dot(&axis) - 1.0).abs() < 1e-12);
+        assert!((m.distance(1, extra).unwrap() - 0.62).abs() < 1e-12);
+        m.remove_atom(2).unwrap();
+        assert_eq!(m.atoms.len(), 5);
+        assert!(m.bonds.iter().all(|b| b.a < 5 && b.b < 5 && b.a != b.b));
+        assert_eq!(m.neighbours(0), vec![1, 2, 3]);
+        m.set_element(0, Element::N).unwrap();
+        assert_eq!(m.atoms[0].element, Element::N);
+        assert!(m.remove_atom(9).is_err());
     }
 
     #[test]
