@@ -75,7 +75,7 @@ impl Dialogs {
     pub fn apply(&self, state: &mut AppState) {
         for answer in self.receiver.try_iter() {
             match answer {
-                DialogAnswer::Open(path) => state.open(path),
+                DialogAnswer::Open(path) => state.request_open(path),
                 DialogAnswer::SaveAs(path) => state.save_to(path),
                 DialogAnswer::ExportSvg(path) => state.export_svg(path),
             }
@@ -125,6 +125,10 @@ pub fn handle_shortcuts(ui: &egui::Ui, state: &mut AppState, dialogs: &Dialogs) 
 pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
     egui::MenuBar::new().ui(ui, |ui| {
         ui.menu_button("File", |ui| {
+            if ui.button("New").clicked() {
+                state.new_document();
+                ui.close();
+            }
             if ui.button("Open…  (Ctrl+O)").clicked() {
                 dialogs.ask_open();
                 ui.close();

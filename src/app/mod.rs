@@ -7,6 +7,7 @@ mod history;
 mod inspector;
 mod menus;
 mod molecule_panel;
+mod recovery;
 mod screenshot;
 mod settings_window;
 mod state;
@@ -101,6 +102,9 @@ impl DiptychApp {
 
         let now = ui.input(|input| input.time);
         self.state.after_frame(before, now);
+        self.state.autosave(now);
+        self.discard_dialog(ui);
+        self.recovery_dialog(ui);
 
         let title = self.state.title();
         if title != self.last_title {
@@ -218,6 +222,97 @@ impl DiptychApp {
         }
     }
 
+    /// Asks before an action throws away unsaved changes; also catches the window's close.
+    fn discard_dialog(&mut self, ui: &egui::Ui) {
+        let close_requested = ui.input(|input| input.viewport().close_requested());
+        if close_requested
+            && self.state.dirty
+            && self.state.pending_discard != Some(state::Discard::Quit)
+        {
+            ui.ctx()
+                .send_viewport_cmd(egui::ViewportCommand::CancelClose);
+            self.state.pending_discard = Some(state::Discard::Quit);
+        } else if close_requested && !self.state.dirty {
+            if let Some(path) = &self.state.recovery_path {
+                recovery::remove(path);
+            }
+        }
+        let Some(action) = self.state.pending_discard.clone() else {
+            return;
+        };
+        let modal = egui::Modal::new(egui::Id::unique("discard dialog")).show(ui.ctx(), |ui| {
+            ui.heading("Unsaved changes");
+            ui.label("The document has changes that are not saved. Discard them?");
+            ui.horizontal(|ui| {
+                if ui.button("Discard changes").clicked() {
+                    return Some(true);
+                }
+                if ui.button("Keep editing").clicked() {
+                    return Some(false);
+                }
+                None
+            })
+            .inner
+        });
+        match modal.inner {
+            Some(true) => {
+                self.state.pending_discard = None;
+                self.state.dirty = false;
+                match action {
+                    state::Discard::Open(path) => self.state.open(path),
+                    state::Discard::New => self.state.new_document(),
+                    state::Discard::Quit => {
+                        if let Some(path) = &self.state.recovery_path {
+                            recovery::remove(path);
+                        }
+                        ui.ctx().send_viewport_cmd(egui::ViewportCommand::Close);
+                    }
+                }
+            }
+            Some(false) => self.state.pending_discard = None,
+            None if modal.should_close() => self.state.pending_discard = None,
+            None => {}
+        }
+    }
+
+    /// Offers the project left in the recovery file by a session that ended unsaved.
+    fn recovery_dialog(&mut self, ui: &egui::Ui) {
+        let Some(offer) = self.state.recovery_offer.clone() else {
+            return;
+        };
+        let modal = egui::Modal::new(egui::Id::unique("recovery dialog")).show(ui.ctx(), |ui| {
+            ui.heading("Restore unsaved work?");
+            ui.label(format!(
+                "Diptych found unsaved work on {} from an earlier session.",
+                offer.molecule.name
+            ));
+            ui.horizontal(|ui| {
+                if ui.button("Restore").clicked() {
+                    return Some(true);
+                }
+                if ui.button("Discard it").clicked() {
+                    return Some(false);
+                }
+                None
+            })
+            .inner
+        });
+        match modal.inner {
+            Some(true) => {
+                self.state.recovery_offer = None;
+                self.state.replace_document(offer, None);
+                self.state.dirty = true;
+            }
+            Some(false) => {
+                self.state.recovery_offer = None;
+                if let Some(path) = &self.state.recovery_path {
+                    recovery::remove(path);
+                }
+            }
+            None => {}
+        }
+    }
+
     fn error_dialog(&mut self, ui: &egui::Ui) {
         let Some(message) = self.state.error_dialog.clone() else {
             return;
@@ -267,7 +362,18 @@ pub fn run(opened: Option<(Opened, PathBuf)>, screenshot: Option<PathBuf>) -> Re
             "Diptych",
             options,
             Box::new(move |creation| {
+                let interactive = screenshot.is_none();
+                let fresh_start = opened.is_none();
                 let mut app = DiptychApp::new(creation.egui_ctx.clone(), opened, screenshot);
+                if interactive {
+                    // Autosave and the recovery offer belong to real sessions, not to
+                    // screenshots.
+                    app.state.recovery_path = recovery::default_path();
+                    if fresh_start {
+                        app.state.recovery_offer =
+                            app.state.recovery_path.as_ref().and_then(recovery::read);
+                    }
+                }
                 if let (Some(task), Some(slot)) = (&mut app.screenshot, slot) {
                     task.report_to(slot);
                 }

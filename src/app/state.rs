@@ -20,6 +20,14 @@ use super::worker::AnalysisWorker;
 /// The demo molecule shown at start-up (DESIGN §7).
 const DEFAULT_MOLECULE: &str = include_str!("../../demo_molecules/ammonia.xyz");
 
+/// What the user asked for that would discard unsaved changes.
+#[derive(Clone, Debug, PartialEq)]
+pub enum Discard {
+    Open(PathBuf),
+    New,
+    Quit,
+}
+
 /// Everything the window shows.
 pub struct AppState {
     pub project: Project,
@@ -42,6 +50,14 @@ pub struct AppState {
     pub camera: Camera,
     pub history: History,
     pub builder: BuilderState,
+    /// Autosave target; None disables autosave and recovery (tests, screenshots).
+    pub recovery_path: Option<PathBuf>,
+    /// A project found in the recovery file at start, offered for restoring.
+    pub recovery_offer: Option<Project>,
+    /// Time of the last autosave (or of the first unsaved change after it).
+    last_autosave: Option<f64>,
+    /// An action waiting for the user to confirm discarding unsaved changes.
+    pub pending_discard: Option<Discard>,
     /// Whether the Settings window is shown.
     pub settings_open: bool,
     /// Set by undo/redo: this frame's change is a history step, not a new edit.
@@ -95,6 +111,10 @@ impl AppState {
             camera: Camera::default(),
             history: History::default(),
             builder: BuilderState::default(),
+            recovery_path: None,
+            recovery_offer: None,
+            last_autosave: None,
+            pending_discard: None,
             settings_open: false,
             navigated_history: false,
             status,
@@ -262,6 +282,58 @@ impl AppState {
         }
     }
 
+    /// Starts a new document (the default molecule) unless changes would be lost.
+    pub fn new_document(&mut self) {
+        if self.dirty {
+            self.pending_discard = Some(Discard::New);
+            return;
+        }
+        self.replace_document(Project::new(default_molecule()), None);
+    }
+
+    /// Opens `path` unless changes would be lost.
+    pub fn request_open(&mut self, path: PathBuf) {
+        if self.dirty {
+            self.pending_discard = Some(Discard::Open(path));
+        } else {
+            self.open(path);
+        }
+    }
+
+    /// Replaces the document (no questions asked).
+    pub fn replace_document(&mut self, project: Project, path: Option<PathBuf>) {
+        self.project = project;
+        self.path = path;
+        self.history.clear();
+        self.builder.template_live = false;
+        self.selected_atom = None;
+        self.selected_level = None;
+        self.camera = Camera::facing(&self.project.molecule);
+        self.document_changed();
+        self.dirty = false;
+    }
+
+    /// Writes the recovery file when changes have been unsaved for a while.
+    pub fn autosave(&mut self, now: f64) {
+        let Some(path) = self.recovery_path.clone() else {
+            return;
+        };
+        if !self.dirty {
+            self.last_autosave = None;
+            return;
+        }
+        match self.last_autosave {
+            None => self.last_autosave = Some(now),
+            Some(since) if now - since >= super::recovery::AUTOSAVE_SECONDS => {
+                if let Err(error) = super::recovery::write(&path, &self.project) {
+                    self.status = format!("Autosave failed: {error}");
+                }
+                self.last_autosave = Some(now);
+            }
+            Some(_) => {}
+        }
+    }
+
     /// Saves the project to `path` (atomically) and remembers the path.
     pub fn save_to(&mut self, path: PathBuf) {
         let path = with_project_extension(path);
@@ -270,6 +342,9 @@ impl AppState {
                 self.status = format!("Saved {}", path.display());
                 self.path = Some(path);
                 self.dirty = false;
+                if let Some(recovery) = &self.recovery_path {
+                    super::recovery::remove(recovery);
+                }
             }
             Err(error) => {
                 self.error_dialog = Some(format!("Could not save the project.\n\n{error}"))

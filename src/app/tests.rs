@@ -427,3 +427,50 @@ fn builder_adds_and_deletes_atoms_with_undo() {
     wait_for_analysis(&mut harness);
     assert_eq!(harness.state().state.project.molecule.formula(), "H3N");
 }
+
+#[test]
+fn unsaved_changes_are_autosaved_and_can_be_restored() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    let folder = tempfile::tempdir().unwrap();
+    let recovery = folder.path().join("recovery.diptych.ron");
+    harness.state_mut().state.recovery_path = Some(recovery.clone());
+    harness.get_by_label("Energies").click();
+    harness.run_steps(2);
+    let edited = harness.state().state.project.clone();
+    let state = &mut harness.state_mut().state;
+    // The frames above started the clock at a harness time of a fraction of a second.
+    state.autosave(30.0);
+    assert!(!recovery.exists(), "not before 60 s of unsaved changes");
+    state.autosave(100.0);
+    assert!(recovery.exists(), "written after 60 s");
+    // A new session offers it; Restore brings the edited document back.
+    let mut next = self::harness();
+    wait_for_analysis(&mut next);
+    next.state_mut().state.recovery_path = Some(recovery.clone());
+    next.state_mut().state.recovery_offer = super::recovery::read(&recovery);
+    next.run_steps(2);
+    next.get_by_label("Restore").click();
+    next.run_steps(2);
+    assert_eq!(next.state().state.project, edited);
+}
+
+#[test]
+fn opening_another_file_asks_before_discarding_changes() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    harness.get_by_label("Energies").click();
+    harness.run_steps(2);
+    let water = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("demo_molecules/water.xyz");
+    harness.state_mut().state.request_open(water.clone());
+    harness.run_steps(2);
+    harness.get_by_label("Unsaved changes");
+    harness.get_by_label("Keep editing").click();
+    harness.run_steps(2);
+    assert_eq!(harness.state().state.project.molecule.name, "ammonia");
+    harness.state_mut().state.request_open(water);
+    harness.run_steps(2);
+    harness.get_by_label("Discard changes").click();
+    harness.run_steps(2);
+    assert_eq!(harness.state().state.project.molecule.name, "water");
+}
