@@ -371,7 +371,7 @@ pub fn run(opened: Option<(Opened, PathBuf)>, screenshot: Option<PathBuf>) -> Re
                     app.state.recovery_path = recovery::default_path();
                     if fresh_start {
                         app.state.recovery_offer =
-                            app.state.recovery_path.as_ref().and_then(recovery::read);
+                            app.state.recovery_path.as_deref().and_then(recovery::read);
                     }
                 }
                 if let (Some(task), Some(slot)) = (&mut app.screenshot, slot) {

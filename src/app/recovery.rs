@@ -2,7 +2,7 @@
 //! written to a recovery file every 60 s; on the next start, a leftover recovery file is
 //! offered for restoring. A clean save or a clean exit removes it.
 
-use std::path::PathBuf;
+use std::path::{Path, PathBuf};
 
 use diptych::project::Project;
 
@@ -23,7 +23,7 @@ pub fn default_path() -> Option<PathBuf> {
 
 /// Writes the project to the recovery file (creating its folder); errors are returned as
 /// text for the status bar — autosave must never interrupt the user.
-pub fn write(path: &PathBuf, project: &Project) -> Result<(), String> {
+pub fn write(path: &Path, project: &Project) -> Result<(), String> {
     if let Some(folder) = path.parent() {
         std::fs::create_dir_all(folder).map_err(|e| e.to_string())?;
     }
@@ -31,10 +31,10 @@ pub fn write(path: &PathBuf, project: &Project) -> Result<(), String> {
 }
 
 /// The recovered project, if a readable recovery file exists.
-pub fn read(path: &PathBuf) -> Option<Project> {
+pub fn read(path: &Path) -> Option<Project> {
     path.exists().then(|| Project::load(path).ok()).flatten()
 }
 
-pub fn remove(path: &PathBuf) {
+pub fn remove(path: &Path) {
     let _ = std::fs::remove_file(path);
 }
