@@ -232,10 +232,11 @@ impl DiptychApp {
             ui.ctx()
                 .send_viewport_cmd(egui::ViewportCommand::CancelClose);
             self.state.pending_discard = Some(state::Discard::Quit);
-        } else if close_requested && !self.state.dirty {
-            if let Some(path) = &self.state.recovery_path {
-                recovery::remove(path);
-            }
+        } else if close_requested
+            && !self.state.dirty
+            && let Some(path) = &self.state.recovery_path
+        {
+            recovery::remove(path);
         }
         let Some(action) = self.state.pending_discard.clone() else {
             return;
