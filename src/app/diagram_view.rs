@@ -18,6 +18,8 @@ pub struct DiagramEvents {
     pub hovered: Option<LevelRef>,
     pub clicked: Option<LevelRef>,
     pub clicked_background: bool,
+    /// A new energy window (eV) asked for by the wheel (zoom) or a drag (pan).
+    pub new_window: Option<(f64, f64)>,
 }
 
 /// Maps the layout's abstract units into the panel, keeping the aspect ratio.
@@ -52,7 +54,7 @@ pub fn show(
     // widen the drawing beyond the panel.
     let visible = ui.available_rect_before_wrap().intersect(ui.clip_rect());
     let size = visible.size().max(Vec2::new(200.0, 150.0));
-    let (response, painter) = ui.allocate_painter(size, Sense::click());
+    let (response, painter) = ui.allocate_painter(size, Sense::click_and_drag());
     let rect = response.rect;
     let map = Mapping::new(rect, diagram);
     let visuals = ui.visuals().clone();
@@ -130,6 +132,15 @@ pub fn show(
                 faint,
             );
         }
+        if ladder.hidden_below > 0 {
+            painter.text(
+                map.point(ladder.title_x, diagram.axis_bottom + 16.0),
+                Align2::CENTER_CENTER,
+                format!("+{} lower level(s) not shown", ladder.hidden_below),
+                FontId::proportional(10.0),
+                faint,
+            );
+        }
         for level in &ladder.levels {
             let this = LevelRef {
                 ladder: ladder_index,
@@ -154,6 +165,7 @@ pub fn show(
         hovered,
         clicked,
         clicked_background: response.clicked() && hovered.is_none(),
+        new_window: zoom_or_pan(ui, &response, diagram, &map),
     }
 }
 
@@ -320,6 +332,39 @@ fn draw_electrons(
     } else {
         arrow(centre.x, true);
     }
+}
+
+/// Wheel over the diagram zooms the energy axis about the pointer; a vertical drag pans it.
+fn zoom_or_pan(
+    ui: &egui::Ui,
+    response: &egui::Response,
+    diagram: &Diagram,
+    map: &Mapping,
+) -> Option<(f64, f64)> {
+    let (min, max) = (diagram.energy_min, diagram.energy_max);
+    let axis_pixels = ((diagram.axis_bottom - diagram.axis_top) as f32 * map.scale).max(1.0) as f64;
+    let per_pixel = (max - min) / axis_pixels;
+    if response.dragged_by(egui::PointerButton::Primary) {
+        let dy = response.drag_delta().y as f64;
+        if dy != 0.0 {
+            return Some((min + dy * per_pixel, max + dy * per_pixel));
+        }
+    }
+    if response.hovered() {
+        let scroll = ui.input(|input| input.smooth_scroll_delta.y) as f64;
+        if scroll != 0.0
+            && let Some(pointer) = response.hover_pos()
+        {
+            let top = map.point(0.0, diagram.axis_top).y as f64;
+            let at = max - (pointer.y as f64 - top) * per_pixel;
+            let factor = (-scroll * 0.002).exp().clamp(0.2, 5.0);
+            let (low, high) = (at - (at - min) * factor, at + (max - at) * factor);
+            if high - low > 0.05 && high - low < 500.0 {
+                return Some((low, high));
+            }
+        }
+    }
+    None
 }
 
 fn group_of(diagram: &Diagram, level: LevelRef) -> Option<usize> {

@@ -202,6 +202,16 @@ impl DiptychApp {
                 egui::Slider::new(&mut self.state.project.view.link_threshold, 0.0..=0.5)
                     .text("hide lines below this weight"),
             );
+            if ui
+                .add_enabled(self.state.energy_window.is_some(), egui::Button::new("Fit"))
+                .on_hover_text(
+                    "Wheel zooms the energy axis, dragging pans it; Fit shows every occupied level",
+                )
+                .clicked()
+            {
+                self.state.energy_window = None;
+                self.state.rebuild_diagram();
+            }
         });
         let show_energies = self.state.project.view.show_energies;
         let Some(diagram) = &self.state.diagram else {
@@ -215,6 +225,10 @@ impl DiptychApp {
         };
         let events = diagram_view::show(ui, diagram, self.state.selected_level, show_energies);
         self.state.hovered_level = events.hovered;
+        if let Some(window) = events.new_window {
+            self.state.energy_window = Some(window);
+            self.state.rebuild_diagram();
+        }
         if let Some(level) = events.clicked {
             self.state.selected_level = Some(level);
         } else if events.clicked_background {

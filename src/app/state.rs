@@ -47,6 +47,8 @@ pub struct AppState {
     pub hovered_level: Option<LevelRef>,
     /// The diagram of `analysis` with the current titles and threshold.
     pub diagram: Option<Diagram>,
+    /// The zoomed energy window of the Diagram (view state); None fits the levels.
+    pub energy_window: Option<(f64, f64)>,
     pub camera: Camera,
     pub history: History,
     pub builder: BuilderState,
@@ -108,6 +110,7 @@ impl AppState {
             selected_level: None,
             hovered_level: None,
             diagram: None,
+            energy_window: None,
             camera: Camera::default(),
             history: History::default(),
             builder: BuilderState::default(),
@@ -249,6 +252,7 @@ impl AppState {
         let options = DiagramOptions {
             titles: self.project.titles.clone(),
             link_threshold: self.project.view.link_threshold,
+            energy_window: self.energy_window,
             ..DiagramOptions::default()
         };
         self.diagram = self
@@ -272,6 +276,7 @@ impl AppState {
                 self.builder.template_live = false;
                 self.selected_atom = None;
                 self.selected_level = None;
+                self.energy_window = None;
                 self.camera = Camera::facing(&self.project.molecule);
                 self.document_changed();
                 self.dirty = false;
@@ -308,6 +313,7 @@ impl AppState {
         self.builder.template_live = false;
         self.selected_atom = None;
         self.selected_level = None;
+        self.energy_window = None;
         self.camera = Camera::facing(&self.project.molecule);
         self.document_changed();
         self.dirty = false;

@@ -474,3 +474,26 @@ fn opening_another_file_asks_before_discarding_changes() {
     harness.run_steps(2);
     assert_eq!(harness.state().state.project.molecule.name, "water");
 }
+
+#[test]
+fn the_energy_axis_zooms_and_fits() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    let fitted = {
+        let d = harness.state().state.diagram.as_ref().unwrap();
+        (d.energy_min, d.energy_max)
+    };
+    {
+        let state = &mut harness.state_mut().state;
+        state.energy_window = Some((-18.0, -12.0));
+        state.rebuild_diagram();
+    }
+    harness.run_steps(2);
+    let zoomed = harness.state().state.diagram.as_ref().unwrap();
+    assert_eq!((zoomed.energy_min, zoomed.energy_max), (-18.0, -12.0));
+    assert_eq!(zoomed.ladders[0].hidden_below, 1, "2a1 is below the window");
+    harness.get_by_label("Fit").click();
+    harness.run_steps(2);
+    let back = harness.state().state.diagram.as_ref().unwrap();
+    assert_eq!((back.energy_min, back.energy_max), fitted);
+}

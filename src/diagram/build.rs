@@ -5,7 +5,7 @@
 use crate::analysis::Analysis;
 use crate::project::LadderTitles;
 
-use super::layout::{Diagram, LadderInput, LevelInput, LinkInput, layout};
+use super::layout::{Diagram, LadderInput, LevelInput, LinkInput, default_window, layout_in};
 
 /// Orbitals closer than this (eV) are drawn as one degenerate set when symmetry gives
 /// no grouping (common practice, no source).
@@ -19,6 +19,8 @@ pub struct DiagramOptions {
     pub link_threshold: f64,
     /// Virtual levels up to this many eV above the LUMO are shown.
     pub virtual_span_ev: f64,
+    /// A zoomed energy window (eV, low to high); None fits all occupied levels.
+    pub energy_window: Option<(f64, f64)>,
 }
 
 impl Default for DiagramOptions {
@@ -27,6 +29,7 @@ impl Default for DiagramOptions {
             titles: LadderTitles::default(),
             link_threshold: 0.05,
             virtual_span_ev: 8.0,
+            energy_window: None,
         }
     }
 }
@@ -122,5 +125,9 @@ pub fn diagram_for(analysis: &Analysis, options: &DiagramOptions) -> Diagram {
         }
     }
     links.retain(|l| l.weight >= options.link_threshold);
-    layout(&[delocalized, localized], &links, options.virtual_span_ev)
+    let ladders = [delocalized, localized];
+    let window = options
+        .energy_window
+        .unwrap_or_else(|| default_window(&ladders, options.virtual_span_ev));
+    layout_in(&ladders, &links, window)
 }

@@ -115,8 +115,10 @@ pub struct Ladder {
     pub title_x: f64,
     pub title_y: f64,
     pub levels: Vec<Level>,
-    /// Levels outside the energy window, not drawn.
+    /// Levels above the energy window, not drawn.
     pub hidden_above: usize,
+    /// Levels below the energy window, not drawn.
+    pub hidden_below: usize,
 }
 
 /// The whole diagram.
@@ -196,9 +198,26 @@ fn energy_window(ladders: &[LadderInput], virtual_span: f64) -> (f64, f64) {
     (lowest - 1.0, highest.max(lowest + 1.0) + 1.0)
 }
 
-/// Places both ladders, the axis and the links.
+/// The default energy window: every occupied level and the virtual levels up to
+/// `virtual_span` eV above the LUMO, padded by 1 eV.
+pub fn default_window(ladders: &[LadderInput; 2], virtual_span: f64) -> (f64, f64) {
+    energy_window(ladders, virtual_span)
+}
+
+/// Places both ladders, the axis and the links in the default energy window.
 pub fn layout(ladders: &[LadderInput; 2], links: &[LinkInput], virtual_span: f64) -> Diagram {
-    let (energy_min, energy_max) = energy_window(ladders, virtual_span);
+    layout_in(ladders, links, energy_window(ladders, virtual_span))
+}
+
+/// Places both ladders, the axis and the links with the energy axis spanning `window`
+/// (eV, low to high); levels outside it are counted, not drawn.
+pub fn layout_in(ladders: &[LadderInput; 2], links: &[LinkInput], window: (f64, f64)) -> Diagram {
+    let (energy_min, energy_max) =
+        if window.0.is_finite() && window.1.is_finite() && window.1 - window.0 > 1e-3 {
+            window
+        } else {
+            (-20.0, 0.0)
+        };
     let step = tick_step(energy_max - energy_min, 8.0);
     let mut ticks = Vec::new();
     let mut tick = (energy_min / step).ceil() * step;
@@ -234,9 +253,11 @@ fn place_ladder(input: &LadderInput, span: (f64, f64), side: usize, min: f64, ma
     // Group degenerate members, keeping the caller's order within a group.
     let mut groups: Vec<(usize, Vec<&LevelInput>)> = Vec::new();
     let mut hidden_above = 0;
+    let mut hidden_below = 0;
     for level in &input.levels {
         if level.energy_ev > max || level.energy_ev < min {
             hidden_above += usize::from(level.energy_ev > max);
+            hidden_below += usize::from(level.energy_ev < min);
             continue;
         }
         match groups.iter_mut().find(|(group, _)| *group == level.group) {
@@ -332,6 +353,7 @@ fn place_ladder(input: &LadderInput, span: (f64, f64), side: usize, min: f64, ma
         title_y: 32.0,
         levels,
         hidden_above,
+        hidden_below,
     }
 }
 
@@ -551,6 +573,19 @@ mod tests {
             "from the right ladder to the left one"
         );
         assert!((link.to.1 - diagram.y_of(-16.5)).abs() < 1e-9);
+    }
+
+    #[test]
+    fn a_chosen_window_zooms_the_axis_and_hides_the_rest() {
+        let diagram = layout_in(&ammonia_like(), &[], (-18.0, -12.0));
+        assert_eq!((diagram.energy_min, diagram.energy_max), (-18.0, -12.0));
+        let left = &diagram.ladders[0];
+        assert_eq!(left.levels.len(), 3, "1e pair and 3a1 remain");
+        assert_eq!((left.hidden_below, left.hidden_above), (1, 3));
+        assert!((diagram.y_of(-12.0) - diagram.axis_top).abs() < 1e-9);
+        // An empty or inverted window falls back to a usable one instead of dividing by 0.
+        let fallback = layout_in(&ammonia_like(), &[], (5.0, 5.0));
+        assert!(fallback.energy_max > fallback.energy_min);
     }
 
     #[test]

@@ -8,5 +8,5 @@ pub mod style;
 pub mod svg;
 
 pub use build::{DiagramOptions, diagram_for};
-pub use layout::{Diagram, LadderInput, LevelInput, LinkInput, Side, layout};
+pub use layout::{Diagram, LadderInput, LevelInput, LinkInput, Side, layout, layout_in};
 pub use svg::{SvgOptions, to_svg};
