@@ -155,23 +155,29 @@ impl Project {
         Project::from_ron(&text)
     }
 
-    /// The document as pretty RON text.
-    pub fn to_ron(&self) -> String {
+    /// The document as pretty RON text. Fails only for values RON cannot write, which
+    /// must never reach a file as an empty document.
+    pub fn to_ron(&self) -> Result<String, ProjectError> {
         let config = ron::ser::PrettyConfig::new()
             .depth_limit(4)
             .indentor("  ".to_string());
-        // Serializing plain data to a String cannot fail; fall back to compact text anyway.
-        ron::ser::to_string_pretty(self, config)
-            .or_else(|_| ron::to_string(self))
-            .unwrap_or_default()
+        ron::ser::to_string_pretty(self, config).map_err(|error| ProjectError::Write {
+            path: String::new(),
+            message: one_line(&error.to_string()),
+        })
     }
 
     /// Writes the project atomically (temporary file + rename).
     pub fn save(&self, path: &Path) -> Result<(), ProjectError> {
-        write_atomically(path, self.to_ron().as_bytes()).map_err(|error| ProjectError::Write {
+        let failed = |message: String| ProjectError::Write {
             path: path.display().to_string(),
-            message: error.to_string(),
-        })
+            message,
+        };
+        let text = self.to_ron().map_err(|error| match error {
+            ProjectError::Write { message, .. } => failed(message),
+            other => other,
+        })?;
+        write_atomically(path, text.as_bytes()).map_err(|error| failed(error.to_string()))
     }
 }
 
@@ -204,50 +210,72 @@ mod tests {
         )
     }
 
+    type TestResult = Result<(), Box<dyn std::error::Error>>;
+
     #[test]
-    fn round_trip_through_a_file() {
+    fn round_trip_through_a_file() -> TestResult {
         let mut project = Project::new(ammonia());
         project.titles.delocalized = "Symmetry <MOs> & \"friends\" — σ/π 軌道".into();
         project.selected_orbital = Some("3a1".into());
-        let folder = tempfile::tempdir().unwrap();
+        let folder = tempfile::tempdir()?;
         let path = folder.path().join("nh3.diptych.ron");
-        project.save(&path).unwrap();
-        let again = Project::load(&path).unwrap();
+        project.save(&path)?;
+        let again = Project::load(&path)?;
         assert_eq!(again, project);
         // No temporary file is left behind.
-        assert_eq!(std::fs::read_dir(folder.path()).unwrap().count(), 1);
+        assert_eq!(std::fs::read_dir(folder.path())?.count(), 1);
+        Ok(())
     }
 
     #[test]
-    fn future_versions_are_refused_clearly() {
+    fn future_versions_are_refused_clearly() -> TestResult {
         let text = Project::new(ammonia())
-            .to_ron()
+            .to_ron()?
             .replacen("version: 1", "version: 7", 1);
         assert_eq!(
             Project::from_ron(&text),
             Err(ProjectError::TooNew { found: 7 })
         );
+        Ok(())
     }
 
     #[test]
-    fn missing_optional_sections_take_defaults() {
+    fn missing_optional_sections_take_defaults() -> TestResult {
         let full = Project::new(ammonia());
         let text = format!(
             "(version: 1, molecule: {})",
-            ron::to_string(&full.molecule).unwrap()
+            ron::to_string(&full.molecule)?
         );
-        let project = Project::from_ron(&text).unwrap();
+        let project = Project::from_ron(&text)?;
         assert_eq!(project.titles, LadderTitles::default());
+        Ok(())
     }
 
     #[test]
-    fn damaged_text_is_an_error() {
-        let text = Project::new(ammonia()).to_ron();
+    fn damaged_text_is_an_error() -> TestResult {
+        let text = Project::new(ammonia()).to_ron()?;
         let cut = &text[..text.len() / 2];
         assert!(matches!(
             Project::from_ron(cut),
             Err(ProjectError::Damaged(_))
         ));
+        Ok(())
+    }
+
+    #[test]
+    fn an_unwritable_molecule_is_an_error_not_an_empty_file() -> TestResult {
+        let mut project = Project::new(ammonia());
+        project.molecule.atoms[0].position.x = f64::INFINITY;
+        let folder = tempfile::tempdir()?;
+        let path = folder.path().join("bad.diptych.ron");
+        assert!(
+            matches!(project.save(&path), Err(ProjectError::Write { .. })) || {
+                // RON may write "inf"; then the file must still read back as this project's
+                // invalid molecule, never as an empty document.
+                matches!(Project::load(&path), Err(ProjectError::InvalidMolecule(_)))
+            }
+        );
+        Ok(())
     }
 }
 

@@ -267,23 +267,25 @@ mod tests {
     const FORMALDEHYDE: &str = "formaldehyde\n  hand-written\n\n  4  3  0  0  0  0  0  0  0  0999 V2000\n    0.0000    0.0000    0.5296 C   0  0  0  0  0  0  0  0  0  0  0  0\n    0.0000    0.0000   -0.6790 O   0  0  0  0  0  0  0  0  0  0  0  0\n    0.0000    0.9377    1.1126 H   0  0  0  0  0  0  0  0  0  0  0  0\n    0.0000   -0.9377    1.1126 H   0  0  0  0  0  0  0  0  0  0  0  0\n  1  2  2  0\n  1  3  1  0\n  1  4  1  0\nM  END\n";
 
     #[test]
-    fn reads_atoms_bonds_and_orders() {
-        let parsed = parse_molfile(FORMALDEHYDE, "x").unwrap();
+    fn reads_atoms_bonds_and_orders() -> Result<(), ParseError> {
+        let parsed = parse_molfile(FORMALDEHYDE, "x")?;
         let m = parsed.molecule;
         assert_eq!(m.name, "formaldehyde");
         assert_eq!(m.atoms.len(), 4);
         assert_eq!(m.bond(0, 1).map(|b| b.order), Some(2));
         assert_eq!(m.bonds.len(), 3);
         assert_eq!(m.charge, 0);
+        Ok(())
     }
 
     #[test]
-    fn charges_from_block_and_chg_property() {
+    fn charges_from_block_and_chg_property() -> Result<(), ParseError> {
         let block = FORMALDEHYDE.replace(" O   0  0", " O   0  5");
-        assert_eq!(parse_molfile(&block, "x").unwrap().molecule.charge, -1);
+        assert_eq!(parse_molfile(&block, "x")?.molecule.charge, -1);
         let with_chg = block.replace("M  END", "M  CHG  2   2   1   1   1\nM  END");
         // M  CHG supersedes the atom block: +1 on O and +1 on C.
-        assert_eq!(parse_molfile(&with_chg, "x").unwrap().molecule.charge, 2);
+        assert_eq!(parse_molfile(&with_chg, "x")?.molecule.charge, 2);
+        Ok(())
     }
 
     #[test]
