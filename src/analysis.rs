@@ -79,6 +79,22 @@ pub struct OrbitalSummary {
     pub composition: Vec<AoShare>,
 }
 
+impl OrbitalSummary {
+    /// Mulliken gross shares summed per atom, largest first (from `composition`, so
+    /// shares under 1 % per AO are not included).
+    pub fn atom_shares(&self) -> Vec<(usize, f64)> {
+        let mut by_atom: Vec<(usize, f64)> = Vec::new();
+        for part in &self.composition {
+            match by_atom.iter_mut().find(|(atom, _)| *atom == part.atom) {
+                Some((_, total)) => *total += part.share,
+                None => by_atom.push((part.atom, part.share)),
+            }
+        }
+        by_atom.sort_by(|a, b| b.1.abs().total_cmp(&a.1.abs()));
+        by_atom
+    }
+}
+
 /// One atomic orbital's Mulliken gross share of an MO: c_μ Σ_ν S_μν c_ν (Mulliken,
 /// J. Chem. Phys. 23, 1833 (1955)); the shares of one MO add to 1.
 #[derive(Clone, Debug, PartialEq, Serialize)]

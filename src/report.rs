@@ -6,6 +6,7 @@ use serde::Serialize;
 use crate::analysis::{
     Analysis, HybridEntry, LinkSummary, LocalizedSummary, OrbitalSummary, StageError,
 };
+use crate::diagram::style::lambda_text;
 
 #[derive(Serialize)]
 struct AtomEntry {
@@ -229,13 +230,6 @@ fn atom_name(analysis: &Analysis, atom: usize) -> String {
         .atoms
         .get(atom)
         .map_or_else(|| format!("?{atom}"), |a| format!("{}{atom}", a.element))
-}
-
-fn lambda_text(lambda: Option<f64>) -> String {
-    match lambda {
-        Some(value) if value < 1e3 => format!("sp^{value:.2}"),
-        _ => "p (λ → ∞)".into(),
-    }
 }
 
 /// Per centre: partner, λ, %s, hybrid energy, bending.

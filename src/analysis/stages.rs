@@ -15,8 +15,9 @@ use crate::lone_pair_mixing::compare_mixing;
 
 /// Weights below this are left out of the link list (DESIGN §4.6: entries above 1e-4).
 const LINK_LIST_THRESHOLD: f64 = 1e-4;
-/// Orbitals closer than this (eV) form one degenerate set when symmetry gives no label.
-const DEGENERACY_EV: f64 = 1e-3;
+/// Orbitals closer than this (eV) form one degenerate set when symmetry gives no label
+/// (the solver's own tolerance for sharing electrons in a set).
+const DEGENERACY_EV: f64 = crate::eht::DEGENERACY_TOLERANCE_EV;
 
 /// Each lone pair's atomic orbital: the centre's p orbital along the lone-pair hybrid's
 /// direction (issue text of the switch: "the centre's p orbital … along the lone-pair

@@ -3,6 +3,7 @@
 //! correlation lines, a click selects it for the Inspector.
 
 use diptych::diagram::layout::{Diagram, Level};
+use diptych::diagram::style::format_energy;
 use eframe::egui::{self, Align2, Color32, FontId, Pos2, Rect, Sense, Stroke, Vec2};
 
 use super::theme::{ACCENT, level_colour};
@@ -394,14 +395,4 @@ fn level_at(diagram: &Diagram, map: &Mapping, pointer: Pos2) -> Option<LevelRef>
         }
     }
     None
-}
-
-/// "−13.72" with a real minus sign.
-pub fn format_energy(value: f64, decimals: usize) -> String {
-    let text = format!("{value:.decimals$}");
-    match text.strip_prefix('-') {
-        Some(rest) if rest.chars().any(|c| c != '0' && c != '.') => format!("−{rest}"),
-        Some(rest) => rest.to_string(),
-        None => text,
-    }
 }

@@ -5,7 +5,9 @@ use diptych::analysis::Analysis;
 use diptych::diagram::build::LOCALIZED_KEY_OFFSET;
 use eframe::egui;
 
-use super::diagram_view::{LevelRef, format_energy};
+use diptych::diagram::style::{format_energy, lambda_text};
+
+use super::diagram_view::LevelRef;
 use super::molecule_panel;
 use super::state::AppState;
 
@@ -47,14 +49,7 @@ fn canonical_orbital(ui: &mut egui::Ui, analysis: &Analysis, level: LevelRef) {
         });
     ui.add_space(4.0);
     ui.strong("Composition (Mulliken gross shares)");
-    let mut by_atom: Vec<(usize, f64)> = Vec::new();
-    for part in &orbital.composition {
-        match by_atom.iter_mut().find(|(atom, _)| *atom == part.atom) {
-            Some((_, total)) => *total += part.share,
-            None => by_atom.push((part.atom, part.share)),
-        }
-    }
-    by_atom.sort_by(|a, b| b.1.abs().total_cmp(&a.1.abs()));
+    let by_atom = orbital.atom_shares();
     egui::Grid::new("by atom")
         .num_columns(2)
         .striped(true)
@@ -147,10 +142,7 @@ fn localized_orbital(ui: &mut egui::Ui, analysis: &Analysis, level: LevelRef) {
                     }
             }) {
                 ui.label(atom_name(entry.center));
-                ui.label(match entry.lambda {
-                    Some(lambda) if lambda < 1e3 => format!("sp^{lambda:.2}"),
-                    _ => "p".into(),
-                });
+                ui.label(lambda_text(entry.lambda));
                 ui.label(format!("{:.0} % s", entry.s_percent));
                 ui.label(
                     entry

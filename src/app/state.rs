@@ -176,15 +176,11 @@ impl AppState {
             return Vec::new();
         };
         if level.ladder == 0 {
-            let mut weights: Vec<(usize, f64)> = Vec::new();
-            if let Some(orbital) = analysis.orbitals.get(level.key) {
-                for part in &orbital.composition {
-                    match weights.iter_mut().find(|(atom, _)| *atom == part.atom) {
-                        Some((_, total)) => *total += part.share,
-                        None => weights.push((part.atom, part.share)),
-                    }
-                }
-            }
+            let mut weights = analysis
+                .orbitals
+                .get(level.key)
+                .map(|orbital| orbital.atom_shares())
+                .unwrap_or_default();
             weights.retain(|(_, w)| *w > 0.05);
             weights
         } else {
@@ -227,24 +223,26 @@ impl AppState {
 
     /// Steps back one edit.
     pub fn undo(&mut self) {
-        if let Some(previous) = self.history.undo(&self.project) {
-            let change = classify(&previous, &self.project);
-            self.project = previous;
-            self.apply_change(change);
-            self.navigated_history = true;
-            self.status = "Undone".into();
-        }
+        let previous = self.history.undo(&self.project);
+        self.step_to(previous, "Undone");
     }
 
     /// Steps forward one undone edit.
     pub fn redo(&mut self) {
-        if let Some(next) = self.history.redo(&self.project) {
-            let change = classify(&next, &self.project);
-            self.project = next;
-            self.apply_change(change);
-            self.navigated_history = true;
-            self.status = "Redone".into();
-        }
+        let next = self.history.redo(&self.project);
+        self.step_to(next, "Redone");
+    }
+
+    /// Shows a state taken from the history (not recorded as a new edit).
+    fn step_to(&mut self, target: Option<Project>, message: &str) {
+        let Some(target) = target else {
+            return;
+        };
+        let change = classify(&target, &self.project);
+        self.project = target;
+        self.apply_change(change);
+        self.navigated_history = true;
+        self.status = message.into();
     }
 
     /// Lays the diagram out again (after a new analysis, or new titles or threshold).

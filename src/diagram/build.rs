@@ -7,9 +7,9 @@ use crate::project::LadderTitles;
 
 use super::layout::{Diagram, LadderInput, LevelInput, LinkInput, default_window, layout_in};
 
-/// Orbitals closer than this (eV) are drawn as one degenerate set when symmetry gives
-/// no grouping (common practice, no source).
-pub const DEGENERACY_EV: f64 = 1e-3;
+/// Orbitals closer than this (eV) are drawn as one degenerate set (the solver's own
+/// tolerance for sharing electrons in a set).
+pub const DEGENERACY_EV: f64 = crate::eht::DEGENERACY_TOLERANCE_EV;
 
 /// What the user chose to show.
 #[derive(Clone, Debug, PartialEq)]

@@ -17,6 +17,24 @@ pub fn level_rgb(label: &str) -> Option<[u8; 3]> {
     })
 }
 
+/// An energy with a real minus sign ("−13.72"); "−0.00" is printed as "0.00".
+pub fn format_energy(value: f64, decimals: usize) -> String {
+    let text = format!("{value:.decimals$}");
+    match text.strip_prefix('-') {
+        Some(rest) if rest.chars().any(|c| c != '0' && c != '.') => format!("−{rest}"),
+        Some(rest) => rest.to_string(),
+        None => text,
+    }
+}
+
+/// sp^λ as text, with a pure p orbital (λ → ∞, given as None or huge) written "p".
+pub fn lambda_text(lambda: Option<f64>) -> String {
+    match lambda {
+        Some(value) if value < 1e3 => format!("sp^{value:.2}"),
+        _ => "p".into(),
+    }
+}
+
 /// The grey with the same luminance (Rec. 709 weights), for greyscale output.
 pub fn to_grey(rgb: [u8; 3]) -> [u8; 3] {
     let y = 0.2126 * rgb[0] as f64 + 0.7152 * rgb[1] as f64 + 0.0722 * rgb[2] as f64;

@@ -6,7 +6,7 @@
 use std::fmt::Write;
 
 use super::layout::{Diagram, Level};
-use super::style::{Script, label_runs, level_rgb, to_grey};
+use super::style::{Script, format_energy, label_runs, level_rgb, to_grey};
 
 /// Export choices (DESIGN §5.3).
 #[derive(Clone, Debug, PartialEq)]
@@ -63,15 +63,6 @@ fn number(value: f64) -> String {
         "0".into()
     } else {
         text.to_string()
-    }
-}
-
-fn energy_text(value: f64, decimals: usize) -> String {
-    let text = format!("{value:.decimals$}");
-    match text.strip_prefix('-') {
-        Some(rest) if rest.chars().any(|c| c != '0' && c != '.') => format!("−{rest}"),
-        Some(rest) => rest.to_string(),
-        None => text,
     }
 }
 
@@ -157,7 +148,7 @@ pub fn to_svg(diagram: &Diagram, options: &SvgOptions) -> String {
             number(diagram.axis_x),
             number(diagram.axis_x - 10.0),
             number(options.font_size * 0.85),
-            energy_text(tick.energy_ev, 0),
+            format_energy(tick.energy_ev, 0),
             y = number(tick.y)
         );
     }
@@ -288,7 +279,7 @@ fn write_level(
         let energy = if options.show_energies {
             format!(
                 "<tspan fill=\"{faint}\">{}</tspan>",
-                energy_text(level.energy_ev, 2)
+                format_energy(level.energy_ev, 2)
             )
         } else {
             String::new()
