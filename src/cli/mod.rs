@@ -1,4 +1,7 @@
-//! Command-line parsing (clap) and the subcommands of DESIGN §5.4.
+//! Command-line parsing (clap) and the subcommands of DESIGN §5.4; each subcommand that
+//! writes a file lives in its own module here.
+
+mod export;
 
 use std::io::Write;
 use std::path::{Path, PathBuf};
@@ -105,13 +108,13 @@ impl From<ModelArg> for diptych::hybrid::HybridModel {
 
 /// Method choices given on the command line, applied over the project's settings.
 #[derive(Clone, Copy, Debug, Default)]
-struct MethodFlags {
+pub(super) struct MethodFlags {
     no_lone_pair_mixing: bool,
     model: Option<ModelArg>,
 }
 
 impl MethodFlags {
-    fn apply(&self, settings: &mut Settings) {
+    pub(super) fn apply(&self, settings: &mut Settings) {
         if self.no_lone_pair_mixing {
             settings.lone_pair_mixing = false;
         }
@@ -156,7 +159,7 @@ pub fn main() -> ExitCode {
             height,
             force,
         }) => {
-            let request = ExportRequest {
+            let request = export::ExportRequest {
                 flags: MethodFlags {
                     no_lone_pair_mixing,
                     model,
@@ -167,14 +170,14 @@ pub fn main() -> ExitCode {
                 height,
                 force,
             };
-            export(&file, &output, charge, &request)
+            export::export(&file, &output, charge, &request)
         }
         None => open_window(cli.file, cli.screenshot),
     }
 }
 
 /// Reads a file for a subcommand; prints the error and returns exit code 2 when it fails.
-fn open_for_cli(file: &Path, charge: Option<i32>) -> Result<Opened, ExitCode> {
+pub(super) fn open_for_cli(file: &Path, charge: Option<i32>) -> Result<Opened, ExitCode> {
     let mut opened = open_path(file).map_err(|error| {
         eprintln!("diptych: {error}");
         ExitCode::from(2)
@@ -188,7 +191,7 @@ fn open_for_cli(file: &Path, charge: Option<i32>) -> Result<Opened, ExitCode> {
     Ok(opened)
 }
 
-fn run_analysis(opened: &Opened, settings: &Settings) -> Result<Analysis, ExitCode> {
+pub(super) fn run_analysis(opened: &Opened, settings: &Settings) -> Result<Analysis, ExitCode> {
     let analysis = Analysis::run(&opened.project.molecule, settings).map_err(|error| {
         eprintln!("diptych: {error}");
         ExitCode::from(2)
@@ -216,80 +219,7 @@ fn analyze(file: &Path, charge: Option<i32>, format: Format, flags: MethodFlags)
     print_or_fail(&output)
 }
 
-struct ExportRequest {
-    flags: MethodFlags,
-    names: Option<Vec<String>>,
-    greyscale: bool,
-    width: f64,
-    height: f64,
-    force: bool,
-}
-
-fn export(file: &Path, output: &Path, charge: Option<i32>, request: &ExportRequest) -> ExitCode {
-    let valid_size = |v: f64| v.is_finite() && (1.0..=100_000.0).contains(&v);
-    if !valid_size(request.width) || !valid_size(request.height) {
-        eprintln!(
-            "diptych: the size {}×{} is not usable (width and height must be 1 to 100000 pixels)",
-            request.width, request.height
-        );
-        return ExitCode::from(2);
-    }
-    let extension = output
-        .extension()
-        .and_then(|e| e.to_str())
-        .map(str::to_ascii_lowercase);
-    if extension.as_deref() != Some("svg") {
-        eprintln!(
-            "diptych: the output '{}' must end in .svg",
-            output.display()
-        );
-        return ExitCode::from(2);
-    }
-    if output.exists() && !request.force {
-        eprintln!(
-            "diptych: '{}' exists; add --force to replace it",
-            output.display()
-        );
-        return ExitCode::from(2);
-    }
-    let result = open_for_cli(file, charge).and_then(|opened| {
-        let mut settings = opened.project.settings.clone();
-        request.flags.apply(&mut settings);
-        run_analysis(&opened, &settings).map(|analysis| (opened, analysis))
-    });
-    let (opened, analysis) = match result {
-        Ok(pair) => pair,
-        Err(code) => return code,
-    };
-    let mut titles = opened.project.titles.clone();
-    if let Some([left, right]) = request.names.as_deref() {
-        titles.delocalized = left.clone();
-        titles.localized = right.clone();
-    }
-    let options = diptych::diagram::DiagramOptions {
-        titles,
-        link_threshold: opened.project.view.link_threshold,
-        ..Default::default()
-    };
-    let diagram = diptych::diagram::diagram_for(&analysis, &options);
-    let svg_options = diptych::diagram::SvgOptions {
-        width: request.width,
-        height: request.height,
-        greyscale: request.greyscale,
-        show_energies: opened.project.view.show_energies,
-        ..Default::default()
-    };
-    let svg = diptych::diagram::to_svg(&diagram, &svg_options);
-    match diptych::chem::io::write_atomically(output, svg.as_bytes()) {
-        Ok(()) => ExitCode::SUCCESS,
-        Err(error) => {
-            eprintln!("diptych: cannot write '{}': {error}", output.display());
-            ExitCode::from(2)
-        }
-    }
-}
-
-fn print_or_fail(output: &str) -> ExitCode {
+pub(super) fn print_or_fail(output: &str) -> ExitCode {
     let mut stdout = std::io::stdout().lock();
     match stdout
         .write_all(output.as_bytes())
