@@ -189,6 +189,7 @@ pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
             {
                 state.dirty = true;
             }
+            ui.checkbox(&mut state.frame_timer.visible, "Frame time (debug)");
             if ui.button("Reset view").clicked() {
                 state.camera = super::structure_view::Camera::facing(&state.project.molecule);
                 ui.close();

@@ -3,6 +3,7 @@
 
 mod builder;
 mod diagram_view;
+mod frame_timer;
 mod history;
 mod inspector;
 mod menus;
@@ -13,6 +14,7 @@ mod settings_window;
 mod state;
 mod structure_view;
 mod theme;
+mod transition;
 mod worker;
 
 #[cfg(test)]
@@ -51,7 +53,7 @@ impl DiptychApp {
 
     /// Draws one frame into `ui` (the whole window).
     fn frame_ui(&mut self, ui: &mut egui::Ui) {
-        self.state.receive_results();
+        self.state.receive_results(ui.input(|input| input.time));
         self.dialogs.apply(&mut self.state);
         // Every edit of this frame is compared against this copy (undo, recompute).
         let before = self.state.project.clone();
@@ -133,6 +135,11 @@ impl DiptychApp {
             self.state.selected_atom,
             &highlight,
         );
+        if let Some((atom, shift)) = events.moved_atom
+            && let Some(moved) = self.state.project.molecule.atoms.get_mut(atom)
+        {
+            moved.position += shift;
+        }
         if let Some(atom) = events.clicked_atom {
             self.state.selected_atom = Some(atom);
         } else if events.clicked_background {
@@ -214,6 +221,15 @@ impl DiptychApp {
             }
         });
         let show_energies = self.state.project.view.show_energies;
+        let now = ui.input(|input| input.time);
+        if self
+            .state
+            .transition
+            .as_ref()
+            .is_some_and(|transition| transition.finished(now))
+        {
+            self.state.transition = None;
+        }
         let Some(diagram) = &self.state.diagram else {
             ui.centered_and_justified(|ui| {
                 ui.label(match &self.state.analysis_error {
@@ -223,7 +239,16 @@ impl DiptychApp {
             });
             return;
         };
-        let events = diagram_view::show(ui, diagram, self.state.selected_level, show_energies);
+        let gliding = self
+            .state
+            .transition
+            .as_ref()
+            .map(|transition| transition.frame(diagram, now));
+        if gliding.is_some() {
+            ui.ctx().request_repaint();
+        }
+        let shown = gliding.as_ref().unwrap_or(diagram);
+        let events = diagram_view::show(ui, shown, self.state.selected_level, show_energies);
         self.state.hovered_level = events.hovered;
         if let Some(window) = events.new_window {
             self.state.energy_window = Some(window);
@@ -347,7 +372,10 @@ impl DiptychApp {
 
 impl eframe::App for DiptychApp {
     fn ui(&mut self, ui: &mut egui::Ui, _frame: &mut eframe::Frame) {
+        let started = std::time::Instant::now();
         self.frame_ui(ui);
+        self.state.frame_timer.record(started.elapsed());
+        self.state.frame_timer.show(ui.ctx());
         if let Some(task) = &mut self.screenshot {
             task.step(ui.ctx(), self.state.analysis.is_some());
         }

@@ -46,7 +46,10 @@ pub fn selected_atom(ui: &mut egui::Ui, state: &mut AppState) {
     match state.selected_atom.filter(|&index| index < molecule.len()) {
         Some(index) => atom_details(ui, molecule, index),
         None => {
-            ui.weak("Click an atom or a level to see its details. Drag to rotate, scroll to zoom.");
+            ui.weak(
+                "Click an atom or a level to see its details. Drag to rotate, scroll to zoom, \
+                 shift-drag to move the selected atom.",
+            );
         }
     }
 }
@@ -132,7 +135,64 @@ fn atom_details(ui: &mut egui::Ui, molecule: &mut Molecule, index: usize) {
                 }
             });
     }
+    let torsions = dihedrals_from(molecule, index);
+    if !torsions.is_empty() {
+        ui.label("Dihedrals from this atom (°; the smaller side turns)");
+        egui::Grid::new("dihedrals").num_columns(2).show(ui, |ui| {
+            for [i, j, k, l] in torsions {
+                let Ok(mut angle) = molecule.dihedral(i, j, k, l) else {
+                    continue;
+                };
+                let name = [i, j, k, l]
+                    .iter()
+                    .map(|&atom| format!("{}{atom}", molecule.atoms[atom].element))
+                    .collect::<Vec<_>>()
+                    .join("–");
+                let label = ui.label(&name);
+                let response = ui
+                    .add(
+                        egui::DragValue::new(&mut angle)
+                            .range(-180.0..=180.0)
+                            .speed(0.5)
+                            .max_decimals(2),
+                    )
+                    .labelled_by(label.id);
+                if response.changed()
+                    && let Err(error) = molecule.set_dihedral(i, j, k, l, angle)
+                {
+                    message = Some(error.to_string());
+                }
+                ui.end_row();
+            }
+        });
+    }
     if let Some(message) = message {
         ui.colored_label(ui.visuals().error_fg_color, message);
     }
+}
+
+/// Most dihedrals listed for one atom: a crowded molecule would otherwise fill the panel.
+const MAX_DIHEDRALS: usize = 8;
+
+/// Bonded chains i–j–k–l starting at `first` (one per j–k bond, the lowest-numbered l),
+/// so that each rotatable bond reachable in two steps gets one field.
+fn dihedrals_from(molecule: &Molecule, first: usize) -> Vec<[usize; 4]> {
+    let mut chains = Vec::new();
+    for j in molecule.neighbours(first) {
+        for k in molecule.neighbours(j) {
+            if k == first {
+                continue;
+            }
+            let end = molecule
+                .neighbours(k)
+                .into_iter()
+                .filter(|&l| l != j && l != first)
+                .min();
+            if let Some(l) = end {
+                chains.push([first, j, k, l]);
+            }
+        }
+    }
+    chains.truncate(MAX_DIHEDRALS);
+    chains
 }

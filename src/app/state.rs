@@ -15,6 +15,7 @@ use super::builder::BuilderState;
 use super::diagram_view::LevelRef;
 use super::history::{Change, History, classify};
 use super::structure_view::Camera;
+use super::transition::Transition;
 use super::worker::AnalysisWorker;
 
 /// The demo molecule shown at start-up (DESIGN §7).
@@ -47,6 +48,8 @@ pub struct AppState {
     pub hovered_level: Option<LevelRef>,
     /// The diagram of `analysis` with the current titles and threshold.
     pub diagram: Option<Diagram>,
+    /// The glide from the previous layout after the lone-pair switch flipped.
+    pub transition: Option<Transition>,
     /// The zoomed energy window of the Diagram (view state); None fits the levels.
     pub energy_window: Option<(f64, f64)>,
     pub camera: Camera,
@@ -64,6 +67,8 @@ pub struct AppState {
     pub settings_open: bool,
     /// Set by undo/redo: this frame's change is a history step, not a new edit.
     navigated_history: bool,
+    /// The debug overlay's frame-time counter (View menu).
+    pub frame_timer: super::frame_timer::FrameTimer,
     /// One-line message for the status bar.
     pub status: String,
     /// An error to show in a dialog until dismissed.
@@ -110,6 +115,7 @@ impl AppState {
             selected_level: None,
             hovered_level: None,
             diagram: None,
+            transition: None,
             energy_window: None,
             camera: Camera::default(),
             history: History::default(),
@@ -120,6 +126,7 @@ impl AppState {
             pending_discard: None,
             settings_open: false,
             navigated_history: false,
+            frame_timer: Default::default(),
             status,
             error_dialog: None,
         };
@@ -145,17 +152,27 @@ impl AppState {
         self.analysed_generation < self.generation && self.analysis_error.is_none()
     }
 
-    /// Takes finished analyses from the worker; stale ones are dropped.
-    pub fn receive_results(&mut self) {
+    /// Takes finished analyses from the worker (stale ones are dropped); `now` starts the
+    /// glide of the levels when only the lone-pair switch differs from the shown result.
+    pub fn receive_results(&mut self, now: f64) {
         for outcome in self.worker.poll() {
             if outcome.generation < self.analysed_generation {
                 continue;
             }
             match outcome.result {
                 Ok(analysis) => {
+                    let switch_flipped = self.analysis.as_ref().is_some_and(|shown| {
+                        shown.molecule == analysis.molecule
+                            && shown.settings.lone_pair_mixing
+                                != analysis.settings.lone_pair_mixing
+                    });
+                    let previous = self.diagram.take();
                     self.analysis = Some(analysis);
                     self.analysis_error = None;
                     self.rebuild_diagram();
+                    self.transition = previous
+                        .filter(|_| switch_flipped)
+                        .map(|from| Transition::new(from, now));
                 }
                 Err(message) => {
                     // Keep the last good analysis on screen; say why it is not current.

@@ -1,6 +1,7 @@
 //! The Structure panel's 3D view: an orthographic ball-and-stick drawing made with egui's
 //! painter (painter's algorithm: far items first). Drag rotates, the wheel zooms, a click
-//! selects the front-most atom under the pointer.
+//! selects the front-most atom under the pointer, shift-drag moves the selected atom in the
+//! plane of the screen.
 
 use diptych::chem::Molecule;
 use eframe::egui::{self, Align2, Color32, FontId, Pos2, Rect, Sense, Stroke, Vec2};
@@ -59,6 +60,8 @@ impl Camera {
 pub struct ViewEvents {
     pub clicked_atom: Option<usize>,
     pub clicked_background: bool,
+    /// Shift-drag: the selected atom and its displacement in Å (molecule frame).
+    pub moved_atom: Option<(usize, Vector3<f64>)>,
 }
 
 /// Radius of an atom's ball in Å: a fraction of its covalent radius.
@@ -91,7 +94,20 @@ pub fn show(
     let rect = response.rect;
     let mut events = ViewEvents::default();
 
-    if response.dragged_by(egui::PointerButton::Primary) {
+    let shift_held = ui.input(|input| input.modifiers.shift);
+    let movable = selected.filter(|&atom| atom < molecule.atoms.len());
+    if response.dragged_by(egui::PointerButton::Primary)
+        && shift_held
+        && let Some(atom) = movable
+    {
+        let delta = response.drag_delta();
+        let pixels = f64::from(scale(molecule, camera, rect));
+        // Screen y grows downwards; the view frame's y grows upwards.
+        let in_view = Vector3::new(f64::from(delta.x) / pixels, -f64::from(delta.y) / pixels, 0.0);
+        if in_view.norm() > 0.0 {
+            events.moved_atom = Some((atom, camera.rotation.inverse() * in_view));
+        }
+    } else if response.dragged_by(egui::PointerButton::Primary) {
         let delta = response.drag_delta();
         let turn = Rotation3::from_euler_angles(delta.y as f64 * 0.01, delta.x as f64 * 0.01, 0.0);
         camera.rotation = turn * camera.rotation;
