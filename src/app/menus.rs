@@ -133,6 +133,28 @@ pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
                 dialogs.ask_open();
                 ui.close();
             }
+            ui.add_enabled_ui(!state.recent_files.is_empty(), |ui| {
+                ui.menu_button("Open recent", |ui| {
+                    let mut chosen = None;
+                    for path in &state.recent_files {
+                        let name = path.file_name().map_or_else(
+                            || path.display().to_string(),
+                            |n| n.to_string_lossy().into_owned(),
+                        );
+                        if ui
+                            .button(name)
+                            .on_hover_text(path.display().to_string())
+                            .clicked()
+                        {
+                            chosen = Some(path.clone());
+                        }
+                    }
+                    if let Some(path) = chosen {
+                        state.request_open(path);
+                        ui.close();
+                    }
+                });
+            });
             if ui.button("Save project  (Ctrl+S)").clicked() {
                 save(state, dialogs);
                 ui.close();

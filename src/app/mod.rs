@@ -8,6 +8,7 @@ mod history;
 mod inspector;
 mod menus;
 mod molecule_panel;
+mod parameter_editor;
 mod recovery;
 mod screenshot;
 mod settings_window;
@@ -53,6 +54,14 @@ impl DiptychApp {
 
     /// Draws one frame into `ui` (the whole window).
     fn frame_ui(&mut self, ui: &mut egui::Ui) {
+        let started = std::time::Instant::now();
+        self.panels_ui(ui);
+        self.state.frame_timer.record(started.elapsed());
+        self.state.frame_timer.show(ui.ctx());
+    }
+
+    /// The panels, dialogs and bookkeeping of one frame.
+    fn panels_ui(&mut self, ui: &mut egui::Ui) {
         self.state.receive_results(ui.input(|input| input.time));
         self.dialogs.apply(&mut self.state);
         // Every edit of this frame is compared against this copy (undo, recompute).
@@ -95,10 +104,12 @@ impl DiptychApp {
                 egui::ScrollArea::vertical().show(ui, |ui| inspector::show(ui, &mut self.state));
             });
         egui::CentralPanel::default_margins().show(ui, |ui| self.diagram_panel(ui));
+        let elements = parameter_editor::elements_of(&self.state.project.molecule);
         settings_window::show(
             ui.ctx(),
             &mut self.state.settings_open,
             &mut self.state.project.settings,
+            &elements,
         );
         self.error_dialog(ui);
 
@@ -370,12 +381,16 @@ impl DiptychApp {
     }
 }
 
+/// Key of the recent-files list in eframe's storage.
+const RECENT_FILES_KEY: &str = "diptych.recent_files";
+
 impl eframe::App for DiptychApp {
+    fn save(&mut self, storage: &mut dyn eframe::Storage) {
+        eframe::set_value(storage, RECENT_FILES_KEY, &self.state.recent_files);
+    }
+
     fn ui(&mut self, ui: &mut egui::Ui, _frame: &mut eframe::Frame) {
-        let started = std::time::Instant::now();
         self.frame_ui(ui);
-        self.state.frame_timer.record(started.elapsed());
-        self.state.frame_timer.show(ui.ctx());
         if let Some(task) = &mut self.screenshot {
             task.step(ui.ctx(), self.state.analysis.is_some());
         }
@@ -393,6 +408,12 @@ pub fn run(opened: Option<(Opened, PathBuf)>, screenshot: Option<PathBuf>) -> Re
     for renderer in [eframe::Renderer::Wgpu, eframe::Renderer::Glow] {
         let options = eframe::NativeOptions {
             renderer,
+            // Window size and panel widths persist between real sessions; a screenshot
+            // starts from the defaults and leaves nothing behind.
+            persist_window: screenshot.is_none(),
+            persistence_path: screenshot.as_ref().map(|_| {
+                std::env::temp_dir().join(format!("diptych-screenshot-{}.ron", std::process::id()))
+            }),
             viewport: egui::ViewportBuilder::default()
                 .with_title("Diptych")
                 .with_inner_size([1400.0, 900.0]),
@@ -412,6 +433,10 @@ pub fn run(opened: Option<(Opened, PathBuf)>, screenshot: Option<PathBuf>) -> Re
                     // Autosave and the recovery offer belong to real sessions, not to
                     // screenshots.
                     app.state.recovery_path = recovery::default_path();
+                    if let Some(storage) = creation.storage {
+                        app.state.recent_files =
+                            eframe::get_value(storage, RECENT_FILES_KEY).unwrap_or_default();
+                    }
                     if fresh_start {
                         app.state.recovery_offer =
                             app.state.recovery_path.as_deref().and_then(recovery::read);

@@ -1,14 +1,15 @@
-//! The Settings window: the method options of the document (extended Hückel K and
-//! weighting, symmetry tolerance, axis and numbering conventions). Every change is an
+//! The Settings window: the method options of the document (extended Hückel K,
+//! weighting and parameter overrides, symmetry tolerance, axis and numbering conventions). Every change is an
 //! ordinary document edit: undoable, saved with the project, re-analysed off the UI thread.
 
 use diptych::analysis::Settings;
+use diptych::chem::Element;
 use diptych::hybrid::HybridModel;
 use diptych::hybrid::coulson::LonePairConvention;
 use diptych::symmetry::{AxisConvention, MAX_TOLERANCE, Numbering};
 use eframe::egui;
 
-pub fn show(ctx: &egui::Context, open: &mut bool, settings: &mut Settings) {
+pub fn show(ctx: &egui::Context, open: &mut bool, settings: &mut Settings, elements: &[Element]) {
     egui::Window::new("Settings")
         .open(open)
         .resizable(false)
@@ -31,6 +32,11 @@ pub fn show(ctx: &egui::Context, open: &mut bool, settings: &mut Settings) {
                         ui.radio_value(&mut settings.eht.weighted, false, "unweighted");
                     });
                     ui.end_row();
+                });
+            egui::CollapsingHeader::new("Parameter overrides")
+                .default_open(!settings.eht.overrides.is_empty())
+                .show(ui, |ui| {
+                    super::parameter_editor::show(ui, &mut settings.eht, elements)
                 });
             ui.separator();
             ui.strong("Symmetry");

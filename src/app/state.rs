@@ -21,6 +21,9 @@ use super::worker::AnalysisWorker;
 /// The demo molecule shown at start-up (DESIGN §7).
 const DEFAULT_MOLECULE: &str = include_str!("../../demo_molecules/ammonia.xyz");
 
+/// Length of File ▸ Open recent.
+pub const MAX_RECENT: usize = 8;
+
 /// What the user asked for that would discard unsaved changes.
 #[derive(Clone, Debug, PartialEq)]
 pub enum Discard {
@@ -67,6 +70,8 @@ pub struct AppState {
     pub settings_open: bool,
     /// Set by undo/redo: this frame's change is a history step, not a new edit.
     navigated_history: bool,
+    /// Recently opened or saved files, newest first (kept between sessions).
+    pub recent_files: Vec<PathBuf>,
     /// The debug overlay's frame-time counter (View menu).
     pub frame_timer: super::frame_timer::FrameTimer,
     /// One-line message for the status bar.
@@ -126,6 +131,7 @@ impl AppState {
             pending_discard: None,
             settings_open: false,
             navigated_history: false,
+            recent_files: Vec::new(),
             frame_timer: Default::default(),
             status,
             error_dialog: None,
@@ -163,8 +169,7 @@ impl AppState {
                 Ok(analysis) => {
                     let switch_flipped = self.analysis.as_ref().is_some_and(|shown| {
                         shown.molecule == analysis.molecule
-                            && shown.settings.lone_pair_mixing
-                                != analysis.settings.lone_pair_mixing
+                            && shown.settings.lone_pair_mixing != analysis.settings.lone_pair_mixing
                     });
                     let previous = self.diagram.take();
                     self.analysis = Some(analysis);
@@ -286,6 +291,7 @@ impl AppState {
                 } else {
                     opened.notices.join("; ")
                 };
+                self.remember_recent(&path);
                 self.path = Some(path);
                 self.history.clear();
                 self.builder.template_live = false;
@@ -361,6 +367,7 @@ impl AppState {
         match self.project.save(&path) {
             Ok(()) => {
                 self.status = format!("Saved {}", path.display());
+                self.remember_recent(&path);
                 self.path = Some(path);
                 self.dirty = false;
                 if let Some(recovery) = &self.recovery_path {
@@ -393,6 +400,14 @@ impl AppState {
                 ))
             }
         }
+    }
+
+    /// Puts `path` first in the recent-files list (no duplicates, at most `MAX_RECENT`).
+    pub fn remember_recent(&mut self, path: &std::path::Path) {
+        let path = std::fs::canonicalize(path).unwrap_or_else(|_| path.to_path_buf());
+        self.recent_files.retain(|known| *known != path);
+        self.recent_files.insert(0, path);
+        self.recent_files.truncate(MAX_RECENT);
     }
 
     /// The path to save to without asking, if the document came from a project file.

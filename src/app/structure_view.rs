@@ -100,12 +100,9 @@ pub fn show(
         && shift_held
         && let Some(atom) = movable
     {
-        let delta = response.drag_delta();
-        let pixels = f64::from(scale(molecule, camera, rect));
-        // Screen y grows downwards; the view frame's y grows upwards.
-        let in_view = Vector3::new(f64::from(delta.x) / pixels, -f64::from(delta.y) / pixels, 0.0);
-        if in_view.norm() > 0.0 {
-            events.moved_atom = Some((atom, camera.rotation.inverse() * in_view));
+        let shift = view_plane_shift(camera, response.drag_delta(), scale(molecule, camera, rect));
+        if shift.norm() > 0.0 {
+            events.moved_atom = Some((atom, shift));
         }
     } else if response.dragged_by(egui::PointerButton::Primary) {
         let delta = response.drag_delta();
@@ -235,6 +232,19 @@ pub fn show(
     events
 }
 
+/// The displacement in Å (molecule frame) of a drag by `delta` screen pixels, in the
+/// plane of the screen: the depth of the dragged atom does not change.
+pub fn view_plane_shift(camera: &Camera, delta: Vec2, pixels_per_angstrom: f32) -> Vector3<f64> {
+    let pixels = f64::from(pixels_per_angstrom.max(1e-3));
+    // Screen y grows downwards; the view frame's y grows upwards.
+    let in_view = Vector3::new(
+        f64::from(delta.x) / pixels,
+        -f64::from(delta.y) / pixels,
+        0.0,
+    );
+    camera.rotation.inverse() * in_view
+}
+
 /// Pixels per Å so that the molecule fills about 80 % of the smaller panel side.
 fn scale(molecule: &Molecule, camera: &Camera, rect: Rect) -> f32 {
     let centre = geometric_centre(molecule);
@@ -272,4 +282,25 @@ fn project(molecule: &Molecule, camera: &Camera, rect: Rect) -> Vec<Projected> {
             }
         })
         .collect()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn a_shift_drag_moves_parallel_to_the_screen_by_the_dragged_distance() {
+        let camera = Camera::default();
+        let shift = view_plane_shift(&camera, Vec2::new(30.0, -40.0), 50.0);
+        // 50 px per Å: a 50-pixel drag is 1 Å.
+        assert!((shift.norm() - 1.0).abs() < 1e-6, "{shift}");
+        let towards_viewer = camera.rotation.inverse() * Vector3::z();
+        assert!(
+            shift.dot(&towards_viewer).abs() < 1e-9,
+            "no change of depth"
+        );
+        // Dragging up the screen moves the atom up in the view frame.
+        let in_view = camera.rotation * shift;
+        assert!(in_view.y > 0.0 && in_view.x > 0.0, "{in_view}");
+    }
 }

@@ -497,3 +497,150 @@ fn the_energy_axis_zooms_and_fits() {
     let back = harness.state().state.diagram.as_ref().unwrap();
     assert_eq!((back.energy_min, back.energy_max), fitted);
 }
+
+#[test]
+fn flipping_the_switch_glides_the_levels_then_settles() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    assert!(harness.state().state.transition.is_none());
+    harness.get_by_label("Lone-pair mixing").click();
+    harness.run_steps(1);
+    wait_for_analysis(&mut harness);
+    assert!(
+        harness.state().state.transition.is_some(),
+        "the new levels glide in from the old layout"
+    );
+    // egui_kittest advances time by a fixed step per frame; 60 frames outlast the glide.
+    harness.run_steps(60);
+    assert!(harness.state().state.transition.is_none(), "the glide ends");
+    // A geometry edit is not the switch: no glide.
+    harness.state_mut().state.project.molecule.atoms[1]
+        .position
+        .x += 0.01;
+    harness.run_steps(1);
+    wait_for_analysis(&mut harness);
+    assert!(harness.state().state.transition.is_none());
+}
+
+#[test]
+fn a_dihedral_field_is_listed_for_a_terminal_atom() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    let ethylene =
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("demo_molecules/ethylene.xyz");
+    harness.state_mut().state.open(ethylene);
+    wait_for_analysis(&mut harness);
+    let molecule = harness.state().state.project.molecule.clone();
+    let hydrogen = (0..molecule.len())
+        .find(|&i| molecule.atoms[i].element == diptych::chem::Element::H)
+        .expect("ethylene has hydrogens");
+    harness.state_mut().state.selected_atom = Some(hydrogen);
+    harness.run_steps(2);
+    harness.get_by_label_contains("Dihedrals from this atom");
+    let carbon = molecule.neighbours(hydrogen)[0];
+    let other_carbon = molecule
+        .neighbours(carbon)
+        .into_iter()
+        .find(|&n| molecule.atoms[n].element == diptych::chem::Element::C)
+        .expect("C=C");
+    let far_hydrogen = molecule
+        .neighbours(other_carbon)
+        .into_iter()
+        .filter(|&n| n != carbon)
+        .min()
+        .expect("far hydrogen");
+    let name = format!("H{hydrogen}–C{carbon}–C{other_carbon}–H{far_hydrogen}");
+    harness.get_by_label(&name);
+}
+
+#[test]
+fn opened_files_are_remembered_as_recent() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    let folder = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("demo_molecules");
+    for name in ["water.xyz", "methane.xyz", "water.xyz"] {
+        harness.state_mut().state.open(folder.join(name));
+        harness.run_steps(1);
+    }
+    let recent = &harness.state().state.recent_files;
+    assert_eq!(recent.len(), 2, "no duplicates: {recent:?}");
+    assert!(recent[0].ends_with("water.xyz"), "newest first: {recent:?}");
+    harness.get_by_label("File").click();
+    harness.run_steps(2);
+    harness.get_by_label("Open recent").hover();
+    harness.run_steps(2);
+    harness.get_by_label("methane.xyz").click();
+    harness.run_steps(2);
+    wait_for_analysis(&mut harness);
+    assert_eq!(harness.state().state.project.molecule.name, "methane");
+}
+
+#[test]
+fn a_parameter_override_changes_the_levels_and_is_undoable() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    let homo = |harness: &Harness<'static, DiptychApp>| {
+        let analysis = harness.state().state.analysis.as_ref().unwrap();
+        analysis
+            .orbitals
+            .iter()
+            .rfind(|o| o.occupancy > 0.0)
+            .unwrap()
+            .energy_ev
+    };
+    let before = homo(&harness);
+    harness.state_mut().state.settings_open = true;
+    harness.run_steps(2);
+    harness.get_by_label("Parameter overrides").click();
+    harness.run_steps(2);
+    harness.get_by_label("override N").click();
+    harness.run_steps(2);
+    let overrides = harness.state().state.project.settings.eht.overrides.clone();
+    assert_eq!(overrides.len(), 1);
+    assert_eq!(overrides[0].element, diptych::chem::Element::N);
+    // A copy of the built-in row changes nothing yet.
+    wait_for_analysis(&mut harness);
+    assert!((homo(&harness) - before).abs() < 1e-9);
+    // Raise the N 2p H_ii by 1 eV: the lone-pair HOMO, mostly N 2p, rises.
+    if let Some(p_shell) = harness.state_mut().state.project.settings.eht.overrides[0]
+        .shells
+        .iter_mut()
+        .find(|shell| shell.l == 1)
+    {
+        p_shell.vsip += 1.0;
+    }
+    // Edits made outside a frame are announced by hand (the frame diff cannot see them).
+    harness.state_mut().state.document_changed();
+    harness.run_steps(1);
+    wait_for_analysis(&mut harness);
+    let raised = homo(&harness);
+    assert!(raised > before + 0.3, "{before} → {raised}");
+    harness.state_mut().state.undo();
+    harness.run_steps(1);
+    harness.state_mut().state.undo();
+    harness.run_steps(1);
+    wait_for_analysis(&mut harness);
+    assert!(
+        harness
+            .state()
+            .state
+            .project
+            .settings
+            .eht
+            .overrides
+            .is_empty()
+    );
+    assert!((homo(&harness) - before).abs() < 1e-9);
+}
+
+#[test]
+fn the_frame_time_overlay_is_shown_from_the_view_menu() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    assert!(harness.query_by_label_contains("frame CPU").is_none());
+    harness.get_by_label("View").click();
+    harness.run_steps(2);
+    harness.get_by_label("Frame time (debug)").click();
+    harness.run_steps(3);
+    harness.get_by_label_contains("frame CPU");
+}

@@ -111,19 +111,38 @@ mod tests {
             energy_window: Some((-35.0, 5.0)),
             ..DiagramOptions::default()
         };
-        (
-            diagram_for(&mixed, &options),
-            diagram_for(&held, &options),
-        )
+        (diagram_for(&mixed, &options), diagram_for(&held, &options))
+    }
+
+    /// Every level's height and every line's ends (labels of hidden levels carry NaN
+    /// positions, so whole layouts are not compared with ==).
+    fn positions(diagram: &Diagram) -> Vec<f64> {
+        let levels = diagram
+            .ladders
+            .iter()
+            .flat_map(|ladder| ladder.levels.iter().map(|level| level.y));
+        let links = diagram
+            .links
+            .iter()
+            .flat_map(|link| [link.from.0, link.from.1, link.to.0, link.to.1]);
+        levels.chain(links).collect()
     }
 
     #[test]
     fn ends_of_the_glide_are_the_two_layouts() {
         let (from, to) = ammonia_diagrams();
-        assert_eq!(blend(&from, &to, 1.0), to);
+        assert!(positions(&blend(&from, &to, 1.0)) == positions(&to));
+        assert!(
+            positions(&from) != positions(&to),
+            "the switch moves something"
+        );
         let start = blend(&from, &to, 0.0);
         for (old, new) in from.ladders[0].levels.iter().zip(&start.ladders[0].levels) {
-            assert!((old.y - new.y).abs() < 1e-9, "level {} starts where it was", old.key);
+            assert!(
+                (old.y - new.y).abs() < 1e-9,
+                "level {} starts where it was",
+                old.key
+            );
         }
     }
 
@@ -140,7 +159,10 @@ mod tests {
             })
             .max_by(|a, b| a.1.total_cmp(&b.1))
             .expect("levels in both layouts");
-        assert!(distance > 5.0, "the switch moves a level visibly ({distance})");
+        assert!(
+            distance > 3.0,
+            "the switch moves a level visibly ({distance})"
+        );
         let transition = Transition::new(from.clone(), 10.0);
         let y_at = |now: f64| {
             transition.frame(&to, now).ladders[0]
@@ -155,9 +177,12 @@ mod tests {
             .collect();
         let direction = (samples[10] - samples[0]).signum();
         for pair in samples.windows(2) {
-            assert!((pair[1] - pair[0]) * direction >= -1e-9, "no overshoot: {samples:?}");
+            assert!(
+                (pair[1] - pair[0]) * direction >= -1e-9,
+                "no overshoot: {samples:?}"
+            );
         }
-        assert!(transition.finished(10.0 + TRANSITION_SECONDS));
+        assert!(transition.finished(10.0 + TRANSITION_SECONDS + 1e-9));
         assert!(!transition.finished(10.0 + TRANSITION_SECONDS / 2.0));
     }
 }
