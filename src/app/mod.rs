@@ -52,8 +52,13 @@ impl DiptychApp {
         }
     }
 
+    /// Whether the analysis of the current document is on screen (tests, benchmarks).
+    pub fn is_analysed(&self) -> bool {
+        self.state.analysis.is_some() && !self.state.is_computing()
+    }
+
     /// Draws one frame into `ui` (the whole window).
-    fn frame_ui(&mut self, ui: &mut egui::Ui) {
+    pub fn frame_ui(&mut self, ui: &mut egui::Ui) {
         let started = std::time::Instant::now();
         self.panels_ui(ui);
         self.state.frame_timer.record(started.elapsed());
@@ -391,8 +396,9 @@ impl eframe::App for DiptychApp {
 
     fn ui(&mut self, ui: &mut egui::Ui, _frame: &mut eframe::Frame) {
         self.frame_ui(ui);
+        let analysed = self.is_analysed();
         if let Some(task) = &mut self.screenshot {
-            task.step(ui.ctx(), self.state.analysis.is_some());
+            task.step(ui.ctx(), analysed);
         }
     }
 }

@@ -36,7 +36,7 @@ fn wait_for_analysis(harness: &mut Harness<'static, DiptychApp>) {
     let start = Instant::now();
     loop {
         harness.step();
-        if !harness.state().state.is_computing() && harness.state().state.analysis.is_some() {
+        if harness.state().is_analysed() {
             harness.step();
             return;
         }
