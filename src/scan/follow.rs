@@ -1,0 +1,202 @@
+//! Level following across a scan. Consecutive successful points are matched level to level:
+//!
+//! 1. When both points have the same point group, every level has an irrep, each irrep
+//!    has as many levels at both points, and each irrep's levels span nearly the same
+//!    space at both points (Σ|⟨ψᵢ|ψ'ⱼ⟩|² over the irrep's block ≥ half its size, which
+//!    catches a change of axis convention between points), the levels of each irrep are
+//!    paired in energy order. Levels of one irrep never cross (non-crossing rule: J. von
+//!    Neumann and E. Wigner, Phys. Z. 30, 467 (1929)), so an avoided crossing shows as
+//!    two curves that approach and turn away, however coarse the step.
+//! 2. Otherwise (the group changes, e.g. C3v → D3h at planar ammonia, or labels are
+//!    missing) the levels are paired greedily by the overlap |C_prevᵀ S C_curr| of the MOs,
+//!    using this point's AO overlap matrix S: the AO list is the same at every point,
+//!    only the centres move.
+//!
+//! A curve is named by its level's label at the reference point: the first point of the
+//! point group most points share, so that curves are named in the scan's generic symmetry
+//! (C3v for ammonia's pyramidalization; the labels at every point are kept as well, so
+//! the planar end's a2″ is still reported there).
+
+use std::collections::BTreeMap;
+
+use nalgebra::DMatrix;
+
+use super::point::{Lambda, LambdaKey, PointData};
+use super::{Curve, LambdaSeries};
+use crate::chem::molecule::Molecule;
+
+/// The followed curves and the reference point that names them.
+pub fn follow_levels(data: &[Result<PointData, String>]) -> (Vec<Curve>, Option<usize>) {
+    let ok: Vec<usize> = (0..data.len()).filter(|&p| data[p].is_ok()).collect();
+    let Some(&first) = ok.first() else {
+        return (Vec::new(), None);
+    };
+    let level_count = match &data[first] {
+        Ok(point) => point.levels.len(),
+        Err(_) => 0,
+    };
+    // mo_of[p][k]: the level index of curve k at point p.
+    let mut mo_of: Vec<Option<Vec<usize>>> = vec![None; data.len()];
+    mo_of[first] = Some((0..level_count).collect());
+    let mut previous = first;
+    for &p in &ok[1..] {
+        let (Ok(before), Ok(now)) = (&data[previous], &data[p]) else {
+            continue;
+        };
+        if now.levels.len() != level_count {
+            continue;
+        }
+        let pairing = match_levels(before, now);
+        mo_of[p] = mo_of[previous]
+            .as_ref()
+            .map(|map| map.iter().map(|&mo| pairing[mo]).collect());
+        previous = p;
+    }
+    let reference = reference_point(data, &mo_of).unwrap_or(first);
+    let mut curves: Vec<Curve> = (0..level_count)
+        .map(|k| {
+            let at = |p: usize| -> Option<&super::point::PointLevel> {
+                let mo = mo_of[p].as_ref()?[k];
+                data[p].as_ref().ok()?.levels.get(mo)
+            };
+            let label = at(reference)
+                .and_then(|l| l.label.clone())
+                .unwrap_or_else(|| format!("MO {}", k + 1));
+            Curve {
+                name: label.clone(),
+                label,
+                irrep: at(reference).and_then(|l| l.irrep.clone()),
+                energies: (0..data.len())
+                    .map(|p| at(p).map(|l| l.energy_ev))
+                    .collect(),
+                labels: (0..data.len())
+                    .map(|p| at(p).and_then(|l| l.label.clone()))
+                    .collect(),
+                occupancies: (0..data.len())
+                    .map(|p| at(p).map(|l| l.occupancy))
+                    .collect(),
+            }
+        })
+        .collect();
+    make_names_unique(&mut curves);
+    (curves, Some(reference))
+}
+
+/// The first point of the most common point group (ties: the group seen first).
+fn reference_point(
+    data: &[Result<PointData, String>],
+    mo_of: &[Option<Vec<usize>>],
+) -> Option<usize> {
+    let mut counts: Vec<(String, usize, usize)> = Vec::new(); // group, count, first point
+    for (p, result) in data.iter().enumerate() {
+        let (Ok(point), Some(_)) = (result, &mo_of[p]) else {
+            continue;
+        };
+        let Some(group) = &point.point_group else {
+            continue;
+        };
+        match counts.iter_mut().find(|(g, _, _)| g == group) {
+            Some(entry) => entry.1 += 1,
+            None => counts.push((group.clone(), 1, p)),
+        }
+    }
+    counts
+        .iter()
+        .max_by(|a, b| a.1.cmp(&b.1).then(b.2.cmp(&a.2)))
+        .map(|(_, _, p)| *p)
+}
+
+/// Degenerate partners share a label; their names get " [1]", " [2]", … in curve order.
+fn make_names_unique(curves: &mut [Curve]) {
+    let mut totals: BTreeMap<String, usize> = BTreeMap::new();
+    for curve in curves.iter() {
+        *totals.entry(curve.label.clone()).or_default() += 1;
+    }
+    let mut seen: BTreeMap<String, usize> = BTreeMap::new();
+    for curve in curves.iter_mut() {
+        if totals[&curve.label] > 1 {
+            let n = seen.entry(curve.label.clone()).or_default();
+            *n += 1;
+            curve.name = format!("{} [{}]", curve.label, n);
+        }
+    }
+}
+
+/// For each level of `before`, the matching level of `now`.
+pub fn match_levels(before: &PointData, now: &PointData) -> Vec<usize> {
+    let overlap = (before.coefficients.transpose() * &now.overlap * &now.coefficients).abs();
+    by_irrep(before, now, &overlap).unwrap_or_else(|| by_overlap(&overlap))
+}
+
+fn by_irrep(before: &PointData, now: &PointData, overlap: &DMatrix<f64>) -> Option<Vec<usize>> {
+    if before.point_group.is_none() || before.point_group != now.point_group {
+        return None;
+    }
+    let groups = |point: &PointData| -> Option<BTreeMap<String, Vec<usize>>> {
+        let mut map: BTreeMap<String, Vec<usize>> = BTreeMap::new();
+        for (index, level) in point.levels.iter().enumerate() {
+            map.entry(level.irrep.clone()?).or_default().push(index);
+        }
+        Some(map)
+    };
+    let (old, new) = (groups(before)?, groups(now)?);
+    if old.len() != new.len() {
+        return None;
+    }
+    let mut pairing = vec![0; before.levels.len()];
+    for (irrep, old_levels) in &old {
+        let new_levels = new.get(irrep)?;
+        if new_levels.len() != old_levels.len() {
+            return None;
+        }
+        let kept: f64 = old_levels
+            .iter()
+            .flat_map(|&i| new_levels.iter().map(move |&j| overlap[(i, j)].powi(2)))
+            .sum();
+        if kept < 0.5 * old_levels.len() as f64 {
+            return None;
+        }
+        // Both lists are in ascending energy: pair in order.
+        for (&i, &j) in old_levels.iter().zip(new_levels) {
+            pairing[i] = j;
+        }
+    }
+    Some(pairing)
+}
+
+/// Greedy assignment, largest |overlap| first.
+fn by_overlap(overlap: &DMatrix<f64>) -> Vec<usize> {
+    let n = overlap.nrows().min(overlap.ncols());
+    let mut pairs: Vec<(usize, usize)> = (0..n).flat_map(|i| (0..n).map(move |j| (i, j))).collect();
+    pairs.sort_by(|a, b| overlap[*b].total_cmp(&overlap[*a]).then(a.cmp(b)));
+    let mut pairing = vec![usize::MAX; n];
+    let mut taken = vec![false; n];
+    for (i, j) in pairs {
+        if pairing[i] == usize::MAX && !taken[j] {
+            pairing[i] = j;
+            taken[j] = true;
+        }
+    }
+    pairing
+}
+
+/// One λ series per hybrid seen at any point, sorted by model, centre and partner.
+pub fn lambda_series(data: &[Result<PointData, String>], molecule: &Molecule) -> Vec<LambdaSeries> {
+    let mut series: BTreeMap<LambdaKey, Vec<Option<Lambda>>> = BTreeMap::new();
+    for (p, result) in data.iter().enumerate() {
+        let Ok(point) = result else { continue };
+        for (key, lambda) in &point.lambdas {
+            series
+                .entry(key.clone())
+                .or_insert_with(|| vec![None; data.len()])[p] = Some(*lambda);
+        }
+    }
+    series
+        .into_iter()
+        .map(|(key, values)| LambdaSeries {
+            name: key.name(molecule),
+            key,
+            values,
+        })
+        .collect()
+}

@@ -1,0 +1,371 @@
+//! The Walsh diagram of a scan as a standalone SVG 1.1 document (W3C, Scalable Vector
+//! Graphics 1.1, 2nd ed., 2011), written with the diagram writer's helpers: MO energy
+//! against the coordinate, one polyline per followed curve coloured by its irrep family
+//! (occupied solid, empty dashed), the curve's label at its right end, a legend of the
+//! irreps, axes with ticks and units, failed points marked on the axis. Numbers have
+//! fixed precision, so the same scan always gives the same bytes.
+
+use std::fmt::Write;
+
+use super::Scan;
+use crate::diagram::style::{format_energy, level_rgb};
+use crate::diagram::svg::{colour, escape_xml, label_markup, number};
+
+/// Export choices.
+#[derive(Clone, Debug, PartialEq)]
+pub struct WalshSvgOptions {
+    pub width: f64,
+    pub height: f64,
+    pub font_family: String,
+    pub font_size: f64,
+    pub greyscale: bool,
+    /// Energy window (eV, low, high); `None`: from the lowest level to 6 eV above the
+    /// highest occupied one (the empty levels far above carry little of a Walsh argument).
+    pub energy_window: Option<(f64, f64)>,
+    /// A vertical marker at this coordinate value (the current geometry).
+    pub marker: Option<f64>,
+    /// Title above the plot; `None`: "Walsh diagram: " and the coordinate.
+    pub title: Option<String>,
+}
+
+impl Default for WalshSvgOptions {
+    fn default() -> Self {
+        WalshSvgOptions {
+            width: 900.0,
+            height: 650.0,
+            font_family: "DejaVu Sans, Arial, Helvetica, sans-serif".into(),
+            font_size: 14.0,
+            greyscale: false,
+            energy_window: None,
+            marker: None,
+            title: None,
+        }
+    }
+}
+
+const INK: [u8; 3] = [34, 34, 34];
+const FAINT: [u8; 3] = [150, 150, 150];
+
+/// Tick positions at 1, 2 or 5 × 10ᵏ covering [low, high] with about `count` steps.
+fn ticks(low: f64, high: f64, count: f64) -> (Vec<f64>, f64) {
+    let span = (high - low).abs().max(1e-9);
+    let raw = span / count;
+    let power = 10f64.powf(raw.log10().floor());
+    let step = [1.0, 2.0, 5.0, 10.0]
+        .iter()
+        .map(|m| m * power)
+        .find(|s| *s >= raw)
+        .unwrap_or(10.0 * power);
+    let start = (low / step).ceil() as i64;
+    let end = (high / step).floor() as i64;
+    ((start..=end).map(|k| k as f64 * step).collect(), step)
+}
+
+fn tick_text(value: f64, step: f64) -> String {
+    let decimals = if step >= 1.0 {
+        0
+    } else {
+        (-step.log10().floor()) as usize
+    };
+    format_energy(value, decimals)
+}
+
+/// The default energy window: lowest level − 1 eV to highest occupied level + 6 eV.
+fn default_window(scan: &Scan) -> (f64, f64) {
+    let mut low = f64::INFINITY;
+    let mut high_occupied = f64::NEG_INFINITY;
+    for curve in &scan.curves {
+        for (energy, occupancy) in curve.energies.iter().zip(&curve.occupancies) {
+            if let Some(e) = energy {
+                low = low.min(*e);
+                if occupancy.is_some_and(|n| n > 0.0) {
+                    high_occupied = high_occupied.max(*e);
+                }
+            }
+        }
+    }
+    if !low.is_finite() {
+        return (-1.0, 1.0);
+    }
+    if !high_occupied.is_finite() {
+        high_occupied = low;
+    }
+    (low - 1.0, high_occupied + 6.0)
+}
+
+/// The Walsh diagram as SVG text.
+pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
+    let (w, h, fs) = (options.width, options.height, options.font_size);
+    let (left, right, top, bottom) = (80.0, w - 140.0, 50.0, h - 95.0);
+    let values = scan.values();
+    let x_low = values.iter().copied().fold(f64::INFINITY, f64::min);
+    let x_high = values.iter().copied().fold(f64::NEG_INFINITY, f64::max);
+    let (x_low, x_high) = if x_high > x_low {
+        (x_low, x_high)
+    } else {
+        (x_low - 1.0, x_low + 1.0)
+    };
+    let (e_low, e_high) = options
+        .energy_window
+        .unwrap_or_else(|| default_window(scan));
+    let (e_low, e_high) = if e_high > e_low {
+        (e_low, e_high)
+    } else {
+        (e_low - 1.0, e_low + 1.0)
+    };
+    let x_of = |x: f64| left + (x - x_low) / (x_high - x_low) * (right - left);
+    let y_of = |e: f64| bottom - (e - e_low) / (e_high - e_low) * (bottom - top);
+    let ink = colour(INK, options.greyscale);
+    let faint = colour(FAINT, options.greyscale);
+    let curve_colour = |label: &str| colour(level_rgb(label).unwrap_or(INK), options.greyscale);
+
+    let mut svg = String::new();
+    let _ = writeln!(svg, "<?xml version=\"1.0\" encoding=\"UTF-8\"?>");
+    let _ = writeln!(
+        svg,
+        "<svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" width=\"{0}\" height=\"{1}\" viewBox=\"0 0 {0} {1}\" font-family=\"{2}\" font-size=\"{3}\">",
+        number(w),
+        number(h),
+        escape_xml(&options.font_family),
+        number(fs)
+    );
+    let title = options
+        .title
+        .clone()
+        .unwrap_or_else(|| format!("Walsh diagram: {}", scan.request.coordinate.describe()));
+    let _ = writeln!(svg, "<title>{}</title>", escape_xml(&title));
+    let _ = writeln!(
+        svg,
+        "<rect x=\"0\" y=\"0\" width=\"{}\" height=\"{}\" fill=\"#ffffff\"/>",
+        number(w),
+        number(h)
+    );
+    let _ = writeln!(
+        svg,
+        "<text x=\"{}\" y=\"{}\" fill=\"{ink}\" font-size=\"{}\">{}</text>",
+        number(left),
+        number(top - 20.0),
+        number(fs * 1.15),
+        escape_xml(&title)
+    );
+    let _ = writeln!(
+        svg,
+        "<clipPath id=\"plot\"><rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\"/></clipPath>",
+        number(left),
+        number(top),
+        number(right - left),
+        number(bottom - top)
+    );
+
+    // Axes, ticks, units.
+    let _ = writeln!(
+        svg,
+        "<g id=\"axes\" stroke=\"{ink}\" stroke-width=\"1\" fill=\"none\">"
+    );
+    let _ = writeln!(
+        svg,
+        "<rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\"/>",
+        number(left),
+        number(top),
+        number(right - left),
+        number(bottom - top)
+    );
+    let (x_ticks, x_step) = ticks(x_low, x_high, 6.0);
+    for &x in &x_ticks {
+        let _ = writeln!(
+            svg,
+            "<line x1=\"{0}\" y1=\"{1}\" x2=\"{0}\" y2=\"{2}\"/>",
+            number(x_of(x)),
+            number(bottom),
+            number(bottom + 5.0)
+        );
+    }
+    let (e_ticks, e_step) = ticks(e_low, e_high, 8.0);
+    for &e in &e_ticks {
+        let _ = writeln!(
+            svg,
+            "<line x1=\"{0}\" y1=\"{1}\" x2=\"{2}\" y2=\"{1}\"/>",
+            number(left - 5.0),
+            number(y_of(e)),
+            number(left)
+        );
+    }
+    let _ = writeln!(svg, "</g>");
+    let _ = writeln!(svg, "<g id=\"tick-labels\" fill=\"{ink}\">");
+    for &x in &x_ticks {
+        let _ = writeln!(
+            svg,
+            "<text x=\"{}\" y=\"{}\" text-anchor=\"middle\">{}</text>",
+            number(x_of(x)),
+            number(bottom + 8.0 + fs),
+            escape_xml(&tick_text(x, x_step))
+        );
+    }
+    for &e in &e_ticks {
+        let _ = writeln!(
+            svg,
+            "<text x=\"{}\" y=\"{}\" text-anchor=\"end\">{}</text>",
+            number(left - 8.0),
+            number(y_of(e) + fs * 0.35),
+            escape_xml(&tick_text(e, e_step))
+        );
+    }
+    let _ = writeln!(
+        svg,
+        "<text x=\"{}\" y=\"{}\" text-anchor=\"middle\">{}</text>",
+        number((left + right) / 2.0),
+        number(bottom + 12.0 + 2.0 * fs),
+        escape_xml(&scan.request.coordinate.describe())
+    );
+    let _ = writeln!(
+        svg,
+        "<text transform=\"translate({},{}) rotate(-90)\" text-anchor=\"middle\">orbital energy (eV)</text>",
+        number(left - 55.0),
+        number((top + bottom) / 2.0)
+    );
+    let _ = writeln!(svg, "</g>");
+
+    // Curves, broken at failed points.
+    let _ = writeln!(
+        svg,
+        "<g id=\"curves\" clip-path=\"url(#plot)\" fill=\"none\" stroke-width=\"1.6\">"
+    );
+    for curve in &scan.curves {
+        let occupied = curve.occupancies.iter().flatten().any(|&n| n > 0.0);
+        let dash = if occupied {
+            ""
+        } else {
+            " stroke-dasharray=\"5 3\""
+        };
+        let stroke = curve_colour(&curve.label);
+        let mut segment: Vec<String> = Vec::new();
+        let flush = |segment: &mut Vec<String>, svg: &mut String| {
+            if segment.len() > 1 {
+                let _ = writeln!(
+                    svg,
+                    "<polyline stroke=\"{stroke}\"{dash} points=\"{}\"><title>{}</title></polyline>",
+                    segment.join(" "),
+                    escape_xml(&curve.name)
+                );
+            }
+            segment.clear();
+        };
+        for (value, energy) in values.iter().zip(&curve.energies) {
+            match energy {
+                Some(e) => segment.push(format!("{},{}", number(x_of(*value)), number(y_of(*e)))),
+                None => flush(&mut segment, &mut svg),
+            }
+        }
+        flush(&mut segment, &mut svg);
+    }
+    let _ = writeln!(svg, "</g>");
+
+    // Failed points: crosses on the lower axis.
+    let failed = scan.failed_points();
+    if !failed.is_empty() {
+        let _ = writeln!(
+            svg,
+            "<g id=\"failed-points\" stroke=\"{faint}\" stroke-width=\"1.5\">"
+        );
+        for p in failed {
+            let (x, y) = (x_of(values[p]), bottom - 6.0);
+            let _ = writeln!(
+                svg,
+                "<path d=\"M{} {}L{} {}M{} {}L{} {}\"/>",
+                number(x - 4.0),
+                number(y - 4.0),
+                number(x + 4.0),
+                number(y + 4.0),
+                number(x - 4.0),
+                number(y + 4.0),
+                number(x + 4.0),
+                number(y - 4.0)
+            );
+        }
+        let _ = writeln!(svg, "</g>");
+    }
+
+    if let Some(marker) = options.marker.filter(|m| m.is_finite()) {
+        let x = x_of(marker.clamp(x_low, x_high));
+        let _ = writeln!(
+            svg,
+            "<line id=\"marker\" x1=\"{0}\" y1=\"{1}\" x2=\"{0}\" y2=\"{2}\" stroke=\"{faint}\" stroke-dasharray=\"2 3\"/>",
+            number(x),
+            number(top),
+            number(bottom)
+        );
+    }
+
+    // End labels at each curve's last energy inside the window, spread to avoid overlap.
+    let mut ends: Vec<(f64, String, String)> = Vec::new();
+    for curve in &scan.curves {
+        let Some(last) = curve.energies.iter().rev().flatten().next() else {
+            continue;
+        };
+        if *last < e_low || *last > e_high {
+            continue;
+        }
+        if ends
+            .iter()
+            .any(|(e, label, _)| *label == curve.label && (e - last).abs() < 1e-6)
+        {
+            continue;
+        }
+        ends.push((*last, curve.label.clone(), curve_colour(&curve.label)));
+    }
+    ends.sort_by(|a, b| b.0.total_cmp(&a.0));
+    let mut y_prev = f64::NEG_INFINITY;
+    let _ = writeln!(svg, "<g id=\"end-labels\">");
+    for (energy, label, fill) in &ends {
+        let y = (y_of(*energy) + fs * 0.35).max(y_prev + fs * 1.05);
+        y_prev = y;
+        let _ = writeln!(
+            svg,
+            "<text x=\"{}\" y=\"{}\" fill=\"{fill}\">{}</text>",
+            number(right + 6.0),
+            number(y),
+            label_markup(label, fs)
+        );
+    }
+    let _ = writeln!(svg, "</g>");
+
+    // Legend: one swatch per irrep present, in order of first appearance.
+    let mut irreps: Vec<String> = Vec::new();
+    for curve in &scan.curves {
+        if let Some(irrep) = &curve.irrep
+            && !irreps.contains(irrep)
+        {
+            irreps.push(irrep.clone());
+        }
+    }
+    let _ = writeln!(svg, "<g id=\"legend\" fill=\"{ink}\">");
+    let legend_y = h - 22.0;
+    let mut x = left;
+    for irrep in &irreps {
+        let _ = writeln!(
+            svg,
+            "<line x1=\"{0}\" y1=\"{1}\" x2=\"{2}\" y2=\"{1}\" stroke=\"{3}\" stroke-width=\"3\"/>",
+            number(x),
+            number(legend_y - fs * 0.35),
+            number(x + 18.0),
+            curve_colour(irrep)
+        );
+        let _ = writeln!(
+            svg,
+            "<text x=\"{}\" y=\"{}\">{}</text>",
+            number(x + 22.0),
+            number(legend_y),
+            label_markup(irrep, fs)
+        );
+        x += 34.0 + fs * 0.7 * irrep.chars().count() as f64;
+    }
+    let _ = writeln!(
+        svg,
+        "<text x=\"{}\" y=\"{}\" fill=\"{faint}\">solid: occupied, dashed: empty</text>",
+        number(x + 10.0),
+        number(legend_y)
+    );
+    let _ = writeln!(svg, "</g>");
+    let _ = writeln!(svg, "</svg>");
+    svg
+}
