@@ -20,7 +20,8 @@ pub struct WalshSvgOptions {
     pub font_size: f64,
     pub greyscale: bool,
     /// Energy window (eV, low, high); `None`: from the lowest level to 6 eV above the
-    /// highest occupied one (the empty levels far above carry little of a Walsh argument).
+    /// highest occupied one or just above the LUMO (the empty levels far above carry
+    /// little of a Walsh argument).
     pub energy_window: Option<(f64, f64)>,
     /// A vertical marker at this coordinate value (the current geometry).
     pub marker: Option<f64>,
@@ -70,18 +71,25 @@ fn tick_text(value: f64, step: f64) -> String {
     format_energy(value, decimals)
 }
 
-/// The default energy window: lowest level − 1 eV to highest occupied level + 6 eV.
+/// The default energy window: lowest level − 1 eV up to 6 eV above the highest occupied
+/// level or 1 eV above the highest LUMO, whichever is higher.
 fn default_window(scan: &Scan) -> (f64, f64) {
     let mut low = f64::INFINITY;
     let mut high_occupied = f64::NEG_INFINITY;
-    for curve in &scan.curves {
-        for (energy, occupancy) in curve.energies.iter().zip(&curve.occupancies) {
-            if let Some(e) = energy {
-                low = low.min(*e);
-                if occupancy.is_some_and(|n| n > 0.0) {
-                    high_occupied = high_occupied.max(*e);
-                }
+    let mut high_lumo = f64::NEG_INFINITY;
+    for p in 0..scan.points.len() {
+        let mut lumo = f64::INFINITY;
+        for curve in &scan.curves {
+            let Some(e) = curve.energies[p] else { continue };
+            low = low.min(e);
+            if curve.occupancies[p].is_some_and(|n| n > 0.0) {
+                high_occupied = high_occupied.max(e);
+            } else {
+                lumo = lumo.min(e);
             }
+        }
+        if lumo.is_finite() {
+            high_lumo = high_lumo.max(lumo);
         }
     }
     if !low.is_finite() {
@@ -90,7 +98,7 @@ fn default_window(scan: &Scan) -> (f64, f64) {
     if !high_occupied.is_finite() {
         high_occupied = low;
     }
-    (low - 1.0, high_occupied + 6.0)
+    (low - 1.0, (high_occupied + 6.0).max(high_lumo + 1.0))
 }
 
 /// The Walsh diagram as SVG text.
@@ -296,35 +304,55 @@ pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
         );
     }
 
-    // End labels at each curve's last energy inside the window, spread to avoid overlap.
+    // End labels at each curve's last energy inside the window, spread to avoid overlap. A
+    // curve whose label at its last point differs (the point group changed) shows both:
+    // "3a₁ → 1a₂″".
     let mut ends: Vec<(f64, String, String)> = Vec::new();
     for curve in &scan.curves {
-        let Some(last) = curve.energies.iter().rev().flatten().next() else {
+        let Some(p) = (0..curve.energies.len())
+            .rev()
+            .find(|&p| curve.energies[p].is_some())
+        else {
             continue;
         };
-        if *last < e_low || *last > e_high {
+        let last = curve.energies[p].unwrap_or(f64::NAN);
+        if !(e_low..=e_high).contains(&last) {
             continue;
+        }
+        // Two text elements: a subscript's baseline shift is undone by an empty tspan,
+        // which some renderers skip, so nothing may follow it in the same element.
+        let x = right + 6.0;
+        let mut text = format!(
+            "<text x=\"{}\" y=\"{{y}}\">{}</text>",
+            number(x),
+            label_markup(&curve.label, fs)
+        );
+        if let Some(end) = curve.labels[p].as_ref().filter(|l| **l != curve.label) {
+            let width = fs * 0.6 * curve.label.chars().count() as f64;
+            text.push_str(&format!(
+                "<text x=\"{}\" y=\"{{y}}\">→ {}</text>",
+                number(x + width + 4.0),
+                label_markup(end, fs)
+            ));
         }
         if ends
             .iter()
-            .any(|(e, label, _)| *label == curve.label && (e - last).abs() < 1e-6)
+            .any(|(e, t, _)| *t == text && (e - last).abs() < 1e-6)
         {
             continue;
         }
-        ends.push((*last, curve.label.clone(), curve_colour(&curve.label)));
+        ends.push((last, text, curve_colour(&curve.label)));
     }
     ends.sort_by(|a, b| b.0.total_cmp(&a.0));
     let mut y_prev = f64::NEG_INFINITY;
     let _ = writeln!(svg, "<g id=\"end-labels\">");
-    for (energy, label, fill) in &ends {
+    for (energy, text, fill) in &ends {
         let y = (y_of(*energy) + fs * 0.35).max(y_prev + fs * 1.05);
         y_prev = y;
         let _ = writeln!(
             svg,
-            "<text x=\"{}\" y=\"{}\" fill=\"{fill}\">{}</text>",
-            number(right + 6.0),
-            number(y),
-            label_markup(label, fs)
+            "<g fill=\"{fill}\">{}</g>",
+            text.replace("{y}", &number(y))
         );
     }
     let _ = writeln!(svg, "</g>");
