@@ -2,11 +2,12 @@
 //! known to be usable), then the points are analysed in parallel on scoped std threads
 //! that take the next point from a shared counter, checking a cancel flag before each
 //! point and counting finished points for a progress bar. A point that fails is kept with
-//! its message and the others go on. The levels are followed afterwards ([`super::follow`]).
+//! its message and the others go on. Points run in blocks; after each block its levels are
+//! followed in order ([`super::follow`]) and the MO matrices dropped.
 
 use std::sync::atomic::{AtomicBool, AtomicUsize, Ordering};
 
-use super::follow::{follow_levels, lambda_series};
+use super::follow::{Follower, follow_levels, lambda_series};
 use super::point::{PointData, analyse_point, point_settings};
 use super::{Scan, ScanError, ScanPoint, ScanRequest};
 use crate::analysis::Settings;
@@ -86,48 +87,31 @@ where
     let total = plan.len();
     progress.total.store(total, Ordering::Relaxed);
     progress.done.store(0, Ordering::Relaxed);
-    let next = AtomicUsize::new(0);
     let workers = threads.clamp(1, total);
-    let mut results: Vec<Option<Result<PointData, String>>> = vec![None; total];
-    let finished: Vec<Vec<(usize, Result<PointData, String>)>> = std::thread::scope(|scope| {
-        let handles: Vec<_> = (0..workers)
-            .map(|_| {
-                scope.spawn(|| {
-                    let mut mine = Vec::new();
-                    while !progress.is_cancelled() {
-                        let index = next.fetch_add(1, Ordering::Relaxed);
-                        let Some((_, geometry)) = plan.get(index) else {
-                            break;
-                        };
-                        mine.push((index, analyse(geometry)));
-                        progress.done.fetch_add(1, Ordering::Relaxed);
-                    }
-                    mine
-                })
-            })
-            .collect();
-        handles
-            .into_iter()
-            .map(|h| {
-                h.join()
-                    .map_err(|_| ScanError::Worker("a point's analysis panicked".into()))
-            })
-            .collect::<Result<Vec<_>, _>>()
-    })?;
-    for (index, result) in finished.into_iter().flatten() {
-        results[index] = Some(result);
+    // Points are analysed in blocks so that the follower can drop each point's matrices
+    // soon after it is computed.
+    let block = (workers * 16).max(32);
+    let mut follower = Follower::default();
+    let mut data: Vec<Result<PointData, String>> = Vec::with_capacity(total);
+    for start in (0..total).step_by(block) {
+        let end = (start + block).min(total);
+        let results = analyse_block(&plan[start..end], progress, workers, &analyse)?;
+        if progress.is_cancelled() {
+            return Err(ScanError::Cancelled {
+                done: progress.done(),
+                total,
+            });
+        }
+        for (offset, result) in results.into_iter().enumerate() {
+            let mut result = result.unwrap_or_else(|| Err("not analysed".into()));
+            if let Ok(point) = &mut result {
+                follower.push(start + offset, point);
+                point.release_matrices();
+            }
+            data.push(result);
+        }
     }
-    if progress.is_cancelled() {
-        return Err(ScanError::Cancelled {
-            done: results.iter().filter(|r| r.is_some()).count(),
-            total,
-        });
-    }
-    let data: Vec<Result<PointData, String>> = results
-        .into_iter()
-        .map(|r| r.unwrap_or_else(|| Err("not analysed".into())))
-        .collect();
-    let (curves, reference_point) = follow_levels(&data);
+    let (curves, reference_point) = follow_levels(&data, follower);
     let lambdas = lambda_series(&data, molecule);
     let points = plan
         .into_iter()
@@ -158,4 +142,48 @@ where
         lambdas,
         reference_point,
     })
+}
+
+/// Analyses `points` on `workers` scoped threads that take the next point from a shared
+/// counter; a point not started because of cancellation is `None`.
+fn analyse_block<F>(
+    points: &[(f64, Molecule)],
+    progress: &ScanProgress,
+    workers: usize,
+    analyse: &F,
+) -> Result<Vec<Option<Result<PointData, String>>>, ScanError>
+where
+    F: Fn(&Molecule) -> Result<PointData, String> + Sync,
+{
+    let next = AtomicUsize::new(0);
+    let finished: Vec<Vec<(usize, Result<PointData, String>)>> = std::thread::scope(|scope| {
+        let handles: Vec<_> = (0..workers.min(points.len()))
+            .map(|_| {
+                scope.spawn(|| {
+                    let mut mine = Vec::new();
+                    while !progress.is_cancelled() {
+                        let index = next.fetch_add(1, Ordering::Relaxed);
+                        let Some((_, geometry)) = points.get(index) else {
+                            break;
+                        };
+                        mine.push((index, analyse(geometry)));
+                        progress.done.fetch_add(1, Ordering::Relaxed);
+                    }
+                    mine
+                })
+            })
+            .collect();
+        handles
+            .into_iter()
+            .map(|h| {
+                h.join()
+                    .map_err(|_| ScanError::Worker("a point's analysis panicked".into()))
+            })
+            .collect::<Result<Vec<_>, _>>()
+    })?;
+    let mut results: Vec<Option<Result<PointData, String>>> = vec![None; points.len()];
+    for (index, result) in finished.into_iter().flatten() {
+        results[index] = Some(result);
+    }
+    Ok(results)
 }

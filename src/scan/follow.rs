@@ -25,33 +25,55 @@ use super::point::{Lambda, LambdaKey, PointData};
 use super::{Curve, LambdaSeries};
 use crate::chem::molecule::Molecule;
 
-/// The followed curves and the reference point that names them.
-pub fn follow_levels(data: &[Result<PointData, String>]) -> (Vec<Curve>, Option<usize>) {
-    let ok: Vec<usize> = (0..data.len()).filter(|&p| data[p].is_ok()).collect();
-    let Some(&first) = ok.first() else {
+/// Follows levels point by point as points arrive in order, keeping only the previous
+/// point's matrices, so a long scan does not hold every point's MO coefficients.
+#[derive(Debug, Default)]
+pub struct Follower {
+    previous: Option<(usize, PointData)>,
+    level_count: usize,
+    /// mo_of[p][k]: the level index of curve k at point p (None: failed or not matched).
+    mo_of: Vec<Option<Vec<usize>>>,
+}
+
+impl Follower {
+    /// Adds point `index` (indices must increase); failed points are simply not pushed.
+    pub fn push(&mut self, index: usize, point: &PointData) {
+        if self.mo_of.len() <= index {
+            self.mo_of.resize(index + 1, None);
+        }
+        let map = match &self.previous {
+            None => {
+                self.level_count = point.levels.len();
+                (0..self.level_count).collect()
+            }
+            Some((before_index, before)) => {
+                if point.levels.len() != self.level_count {
+                    return;
+                }
+                let pairing = match_levels(before, point);
+                match &self.mo_of[*before_index] {
+                    Some(map) => map.iter().map(|&mo| pairing[mo]).collect(),
+                    None => return,
+                }
+            }
+        };
+        self.mo_of[index] = Some(map);
+        self.previous = Some((index, point.clone()));
+    }
+}
+
+/// The followed curves and the reference point that names them, from the points' levels
+/// (`data`) and the pairing found by `follower`.
+pub fn follow_levels(
+    data: &[Result<PointData, String>],
+    follower: Follower,
+) -> (Vec<Curve>, Option<usize>) {
+    let mut mo_of = follower.mo_of;
+    mo_of.resize(data.len(), None);
+    let Some(first) = mo_of.iter().position(Option::is_some) else {
         return (Vec::new(), None);
     };
-    let level_count = match &data[first] {
-        Ok(point) => point.levels.len(),
-        Err(_) => 0,
-    };
-    // mo_of[p][k]: the level index of curve k at point p.
-    let mut mo_of: Vec<Option<Vec<usize>>> = vec![None; data.len()];
-    mo_of[first] = Some((0..level_count).collect());
-    let mut previous = first;
-    for &p in &ok[1..] {
-        let (Ok(before), Ok(now)) = (&data[previous], &data[p]) else {
-            continue;
-        };
-        if now.levels.len() != level_count {
-            continue;
-        }
-        let pairing = match_levels(before, now);
-        mo_of[p] = mo_of[previous]
-            .as_ref()
-            .map(|map| map.iter().map(|&mo| pairing[mo]).collect());
-        previous = p;
-    }
+    let level_count = follower.level_count;
     let reference = reference_point(data, &mo_of).unwrap_or(first);
     let mut curves: Vec<Curve> = (0..level_count)
         .map(|k| {

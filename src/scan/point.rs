@@ -132,6 +132,12 @@ pub fn analyse_point(molecule: &Molecule, settings: &Settings) -> Result<PointDa
 }
 
 impl PointData {
+    /// Drops the MO coefficients and overlap matrix once the levels have been followed.
+    pub fn release_matrices(&mut self) {
+        self.coefficients = DMatrix::zeros(0, 0);
+        self.overlap = DMatrix::zeros(0, 0);
+    }
+
     /// Extracts the scan's data from a finished analysis.
     pub fn from_analysis(analysis: &Analysis) -> Result<PointData, String> {
         let notes: Vec<String> = analysis
