@@ -7,7 +7,7 @@
 
 use std::fmt::Write;
 
-use super::Scan;
+use super::{Lambda, Scan};
 use crate::diagram::style::{format_energy, level_rgb};
 use crate::diagram::svg::{colour, escape_xml, label_markup, number};
 
@@ -27,19 +27,25 @@ pub struct WalshSvgOptions {
     pub marker: Option<f64>,
     /// Title above the plot; `None`: "Walsh diagram: " and the coordinate.
     pub title: Option<String>,
+    /// A panel of λ (bonds and lone pairs, both models) under the energies.
+    pub lambda_panel: bool,
+    /// A panel of Σ occupancy × ε under the energies.
+    pub sum_panel: bool,
 }
 
 impl Default for WalshSvgOptions {
     fn default() -> Self {
         WalshSvgOptions {
             width: 900.0,
-            height: 650.0,
+            height: 900.0,
             font_family: "DejaVu Sans, Arial, Helvetica, sans-serif".into(),
             font_size: 14.0,
             greyscale: false,
             energy_window: None,
             marker: None,
             title: None,
+            lambda_panel: true,
+            sum_panel: true,
         }
     }
 }
@@ -104,7 +110,12 @@ fn default_window(scan: &Scan) -> (f64, f64) {
 /// The Walsh diagram as SVG text.
 pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
     let (w, h, fs) = (options.width, options.height, options.font_size);
-    let (left, right, top, bottom) = (80.0, w - 140.0, 50.0, h - 95.0);
+    let (left, right, top, axis_bottom) = (80.0, w - 160.0, 50.0, h - 95.0);
+    // Extra panels share the x axis below the energies.
+    let extra = usize::from(options.lambda_panel) + usize::from(options.sum_panel);
+    let gap = 24.0;
+    let panel_height = (axis_bottom - top) * 0.2;
+    let bottom = axis_bottom - extra as f64 * (panel_height + gap);
     let values = scan.values();
     let x_low = values.iter().copied().fold(f64::INFINITY, f64::min);
     let x_high = values.iter().copied().fold(f64::NEG_INFINITY, f64::max);
@@ -205,7 +216,7 @@ pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
             svg,
             "<text x=\"{}\" y=\"{}\" text-anchor=\"middle\">{}</text>",
             number(x_of(x)),
-            number(bottom + 8.0 + fs),
+            number(axis_bottom + 8.0 + fs),
             escape_xml(&tick_text(x, x_step))
         );
     }
@@ -222,7 +233,7 @@ pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
         svg,
         "<text x=\"{}\" y=\"{}\" text-anchor=\"middle\">{}</text>",
         number((left + right) / 2.0),
-        number(bottom + 12.0 + 2.0 * fs),
+        number(axis_bottom + 12.0 + 2.0 * fs),
         escape_xml(&scan.request.coordinate.describe())
     );
     let _ = writeln!(
@@ -357,6 +368,50 @@ pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
     }
     let _ = writeln!(svg, "</g>");
 
+    let frame = Frame {
+        left,
+        right,
+        x_of: &x_of,
+        x_values: &values,
+        x_ticks: &x_ticks,
+        ink: &ink,
+        font_size: fs,
+        marker: options
+            .marker
+            .filter(|m| m.is_finite())
+            .map(|m| x_of(m.clamp(x_low, x_high))),
+        faint: &faint,
+    };
+    let mut panel_top = bottom + gap;
+    if options.lambda_panel {
+        let series = lambda_panel_series(scan, options.greyscale);
+        frame.panel(
+            &mut svg,
+            "lambda",
+            (panel_top, panel_top + panel_height),
+            "λ",
+            &series,
+            Some(10.0),
+        );
+        panel_top += panel_height + gap;
+    }
+    if options.sum_panel {
+        let series = vec![Series {
+            values: scan.points.iter().map(|p| p.sum_occupied_ev).collect(),
+            stroke: ink.clone(),
+            dashed: false,
+            end_label: "Σ occ. ε (eV)".into(),
+        }];
+        frame.panel(
+            &mut svg,
+            "sum",
+            (panel_top, panel_top + panel_height),
+            "Σε (eV)",
+            &series,
+            None,
+        );
+    }
+
     // Legend: one swatch per irrep present, in order of first appearance.
     let mut irreps: Vec<String> = Vec::new();
     for curve in &scan.curves {
@@ -389,11 +444,231 @@ pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
     }
     let _ = writeln!(
         svg,
-        "<text x=\"{}\" y=\"{}\" fill=\"{faint}\">solid: occupied, dashed: empty</text>",
+        "<text x=\"{}\" y=\"{}\" fill=\"{faint}\">{}</text>",
         number(x + 10.0),
-        number(legend_y)
+        number(legend_y),
+        if options.lambda_panel {
+            "levels: solid occupied, dashed empty; λ: solid geometric, dashed localized"
+        } else {
+            "solid: occupied, dashed: empty"
+        }
     );
     let _ = writeln!(svg, "</g>");
     let _ = writeln!(svg, "</svg>");
     svg
+}
+
+/// One line of a side panel.
+struct Series {
+    values: Vec<Option<f64>>,
+    stroke: String,
+    dashed: bool,
+    end_label: String,
+}
+
+/// λ series: bonds in the σ colour, lone pairs in the n colour; geometric model solid,
+/// localized-MO model dashed. A pure p orbital (λ → ∞) leaves a gap in its line and is
+/// labelled "p" at the end.
+fn lambda_panel_series(scan: &Scan, greyscale: bool) -> Vec<Series> {
+    scan.lambdas
+        .iter()
+        .map(|series| {
+            let lone_pair = series.key.partner.is_none();
+            let rgb = level_rgb(if lone_pair { "n" } else { "σ" }).unwrap_or(INK);
+            let last = series.values.iter().rev().flatten().next();
+            let kind = if lone_pair { "n" } else { "σ" };
+            let pure_p = if matches!(last, Some(Lambda::PureP)) {
+                " (p)"
+            } else {
+                ""
+            };
+            Series {
+                values: series
+                    .values
+                    .iter()
+                    .map(|v| match v {
+                        Some(Lambda::Finite(value)) => Some(*value),
+                        _ => None,
+                    })
+                    .collect(),
+                stroke: colour(rgb, greyscale),
+                dashed: series.key.model == "localized",
+                end_label: format!("{kind} {}{pure_p}", series.key.model),
+            }
+        })
+        .collect()
+}
+
+/// What every panel shares: the x axis.
+struct Frame<'a> {
+    left: f64,
+    right: f64,
+    x_of: &'a dyn Fn(f64) -> f64,
+    x_values: &'a [f64],
+    x_ticks: &'a [f64],
+    ink: &'a str,
+    faint: &'a str,
+    font_size: f64,
+    marker: Option<f64>,
+}
+
+impl Frame<'_> {
+    /// A panel between `top` and `bottom` with its own y range (clipped to `cap` above).
+    fn panel(
+        &self,
+        svg: &mut String,
+        id: &str,
+        (top, bottom): (f64, f64),
+        y_title: &str,
+        series: &[Series],
+        cap: Option<f64>,
+    ) {
+        let fs = self.font_size;
+        let finite = series
+            .iter()
+            .flat_map(|s| s.values.iter().flatten().copied());
+        let (mut low, mut high) = finite.fold((f64::INFINITY, f64::NEG_INFINITY), |(a, b), v| {
+            (a.min(v), b.max(v))
+        });
+        if let Some(cap) = cap {
+            high = high.min(cap);
+            low = 0.0;
+        }
+        if !(low.is_finite() && high.is_finite()) {
+            (low, high) = (0.0, 1.0);
+        }
+        let pad = ((high - low) * 0.08).max(1e-3);
+        let (low, high) = (low - pad, high + pad);
+        let y_of = |v: f64| bottom - (v - low) / (high - low) * (bottom - top);
+        let (ink, faint) = (self.ink, self.faint);
+        let _ = writeln!(
+            svg,
+            "<clipPath id=\"clip-{id}\"><rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\"/></clipPath>",
+            number(self.left),
+            number(top),
+            number(self.right - self.left),
+            number(bottom - top)
+        );
+        let _ = writeln!(svg, "<g id=\"panel-{id}\" fill=\"none\" stroke=\"{ink}\">");
+        let _ = writeln!(
+            svg,
+            "<rect x=\"{}\" y=\"{}\" width=\"{}\" height=\"{}\"/>",
+            number(self.left),
+            number(top),
+            number(self.right - self.left),
+            number(bottom - top)
+        );
+        for &x in self.x_ticks {
+            let _ = writeln!(
+                svg,
+                "<line x1=\"{0}\" y1=\"{1}\" x2=\"{0}\" y2=\"{2}\"/>",
+                number((self.x_of)(x)),
+                number(bottom),
+                number(bottom + 5.0)
+            );
+        }
+        let (y_ticks, y_step) = ticks(low, high, 3.0);
+        for &v in &y_ticks {
+            let _ = writeln!(
+                svg,
+                "<line x1=\"{0}\" y1=\"{1}\" x2=\"{2}\" y2=\"{1}\"/>",
+                number(self.left - 5.0),
+                number(y_of(v)),
+                number(self.left)
+            );
+        }
+        if let Some(x) = self.marker {
+            let _ = writeln!(
+                svg,
+                "<line x1=\"{0}\" y1=\"{1}\" x2=\"{0}\" y2=\"{2}\" stroke=\"{faint}\" stroke-dasharray=\"2 3\"/>",
+                number(x),
+                number(top),
+                number(bottom)
+            );
+        }
+        let _ = writeln!(
+            svg,
+            "<g clip-path=\"url(#clip-{id})\" stroke-width=\"1.6\">"
+        );
+        for line in series {
+            let dash = if line.dashed {
+                " stroke-dasharray=\"5 3\""
+            } else {
+                ""
+            };
+            let mut segment: Vec<String> = Vec::new();
+            let mut segments: Vec<String> = Vec::new();
+            for (x, v) in self.x_values.iter().zip(&line.values) {
+                match v {
+                    Some(v) => {
+                        segment.push(format!("{},{}", number((self.x_of)(*x)), number(y_of(*v))))
+                    }
+                    None => {
+                        if segment.len() > 1 {
+                            segments.push(segment.join(" "));
+                        }
+                        segment.clear();
+                    }
+                }
+            }
+            if segment.len() > 1 {
+                segments.push(segment.join(" "));
+            }
+            for points in segments {
+                let _ = writeln!(
+                    svg,
+                    "<polyline stroke=\"{}\"{dash} points=\"{points}\"/>",
+                    line.stroke
+                );
+            }
+        }
+        let _ = writeln!(svg, "</g>");
+        let _ = writeln!(svg, "</g>");
+        let _ = writeln!(svg, "<g id=\"panel-{id}-labels\" fill=\"{ink}\">");
+        for &v in &y_ticks {
+            let _ = writeln!(
+                svg,
+                "<text x=\"{}\" y=\"{}\" text-anchor=\"end\">{}</text>",
+                number(self.left - 8.0),
+                number(y_of(v) + fs * 0.35),
+                escape_xml(&tick_text(v, y_step))
+            );
+        }
+        let _ = writeln!(
+            svg,
+            "<text transform=\"translate({},{}) rotate(-90)\" text-anchor=\"middle\">{}</text>",
+            number(self.left - 55.0),
+            number((top + bottom) / 2.0),
+            escape_xml(y_title)
+        );
+        // End labels, one per distinct text and height (symmetric bonds coincide).
+        let mut placed: Vec<(String, f64)> = Vec::new();
+        for line in series {
+            let Some(last) = line.values.iter().rev().flatten().next() else {
+                continue;
+            };
+            let y = y_of(last.clamp(low, high)) + fs * 0.35;
+            if placed
+                .iter()
+                .any(|(text, at)| *text == line.end_label && (at - y).abs() < fs)
+            {
+                continue;
+            }
+            placed.push((line.end_label.clone(), y));
+        }
+        placed.sort_by(|a, b| a.1.total_cmp(&b.1));
+        let mut y_prev = f64::NEG_INFINITY;
+        for (text, y) in placed {
+            let y = y.max(y_prev + fs * 1.05);
+            y_prev = y;
+            let _ = writeln!(
+                svg,
+                "<text x=\"{}\" y=\"{}\">{}</text>",
+                number(self.right + 6.0),
+                number(y),
+                escape_xml(&text)
+            );
+        }
+        let _ = writeln!(svg, "</g>");
+    }
 }
