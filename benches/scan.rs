@@ -56,7 +56,7 @@ fn scans(c: &mut Criterion) {
         coordinate: Coordinate::Pyramidalize { centre: 0 },
         from: 90.0,
         to: 120.0,
-        points: 181,
+        steps: 181,
     };
     group.bench_function("ammonia_pyramidalize", |b| {
         b.iter(|| {
@@ -75,7 +75,7 @@ fn scans(c: &mut Criterion) {
         coordinate: Coordinate::Angle { i: 1, j: 0, k: 6 },
         from: 100.0,
         to: 140.0,
-        points: 181,
+        steps: 181,
     };
     group.bench_function("benzene_ch_bend", |b| {
         b.iter(|| {

@@ -28,7 +28,7 @@ fn request(coordinate: Coordinate, from: f64, to: f64, points: usize) -> ScanReq
         coordinate,
         from,
         to,
-        points,
+        steps: points,
     }
 }
 

@@ -19,7 +19,7 @@ fn walsh_svg_escapes_marks_failures_and_is_deterministic() -> TestResult {
         coordinate: Coordinate::SymmetricBend { centre: 0 },
         from: 100.0,
         to: 180.0,
-        points: 9,
+        steps: 9,
     };
     let settings = point_settings(&Settings::default());
     let scan = run_scan_with(&water, &request, &ScanProgress::new(), 2, |geometry| {

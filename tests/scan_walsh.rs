@@ -28,7 +28,7 @@ fn scan(
         coordinate,
         from,
         to,
-        points,
+        steps: points,
     };
     Ok(run_scan(
         molecule,

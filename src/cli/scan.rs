@@ -154,7 +154,7 @@ pub(super) fn scan(args: &ScanArgs) -> ExitCode {
         coordinate,
         from: args.from,
         to: args.to,
-        points: args.steps,
+        steps: args.steps,
     };
     // All validation happens here, before any analysis.
     if let Err(error) = request.plan(molecule) {

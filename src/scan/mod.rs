@@ -98,22 +98,22 @@ pub enum ScanError {
     Worker(String),
 }
 
-/// A scan to run: `points` evenly spaced values of `coordinate` from `from` to `to`
+/// A scan to run: `steps` evenly spaced values of `coordinate` from `from` to `to`
 /// (both ends included), in the coordinate's unit (Å or degrees).
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 pub struct ScanRequest {
     pub coordinate: Coordinate,
     pub from: f64,
     pub to: f64,
-    /// Number of points, ends included: 2 to 10 000.
-    pub points: usize,
+    /// Number of points (the CLI's `--steps`), ends included: 2 to 10 000.
+    pub steps: usize,
 }
 
 impl ScanRequest {
     /// The coordinate values of the points.
     pub fn values(&self) -> Vec<f64> {
-        let last = self.points.saturating_sub(1).max(1) as f64;
-        (0..self.points)
+        let last = self.steps.saturating_sub(1).max(1) as f64;
+        (0..self.steps)
             .map(|k| self.from + (self.to - self.from) * k as f64 / last)
             .collect()
     }
@@ -122,15 +122,11 @@ impl ScanRequest {
     /// indices, bonds, the point count, the range, and that no two atoms come closer than
     /// the molecule's minimum separation at any point. Nothing is analysed here.
     pub fn plan(&self, molecule: &Molecule) -> Result<Vec<(f64, Molecule)>, ScanError> {
-        if self.points < MIN_POINTS {
-            return Err(ScanError::TooFewPoints {
-                points: self.points,
-            });
+        if self.steps < MIN_POINTS {
+            return Err(ScanError::TooFewPoints { points: self.steps });
         }
-        if self.points > MAX_POINTS {
-            return Err(ScanError::TooManyPoints {
-                points: self.points,
-            });
+        if self.steps > MAX_POINTS {
+            return Err(ScanError::TooManyPoints { points: self.steps });
         }
         if !(self.from.is_finite() && self.to.is_finite()) {
             return Err(ScanError::NonFiniteRange {
@@ -140,7 +136,7 @@ impl ScanRequest {
         }
         molecule.validate().map_err(ScanError::InvalidMolecule)?;
         self.coordinate.check(molecule)?;
-        let mut plan = Vec::with_capacity(self.points);
+        let mut plan = Vec::with_capacity(self.steps);
         for (point, value) in self.values().into_iter().enumerate() {
             let geometry =
                 self.coordinate
