@@ -118,6 +118,17 @@ fn flattening_ammonia_raises_the_lone_pair_to_a_pure_p_a2_double_prime() -> Test
         .find(|l| l.key.model == "geometric" && l.key.partner.is_none())
         .ok_or("a geometric lone-pair series")?;
     assert_eq!(lone_pair.values[last], Some(Lambda::PureP));
+    // ... and its s character falls all the way there.
+    let s_character: Vec<f64> = lone_pair
+        .values
+        .iter()
+        .map(|v| v.map_or(f64::NAN, Lambda::s_percent))
+        .collect();
+    assert!(
+        s_character.windows(2).all(|w| w[1] < w[0]),
+        "{s_character:?}"
+    );
+    assert_eq!(s_character[last], 0.0);
     assert!(matches!(lone_pair.values[0], Some(Lambda::Finite(v)) if v.is_finite()));
     let bonds: Vec<_> = found
         .lambdas

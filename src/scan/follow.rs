@@ -222,3 +222,94 @@ pub fn lambda_series(data: &[Result<PointData, String>], molecule: &Molecule) ->
         })
         .collect()
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::scan::point::PointLevel;
+
+    fn point(group: &str, irreps: &[&str], energies: &[f64], columns: &[[f64; 2]]) -> PointData {
+        PointData {
+            point_group: Some(group.into()),
+            levels: irreps
+                .iter()
+                .zip(energies)
+                .map(|(irrep, &energy_ev)| PointLevel {
+                    energy_ev,
+                    occupancy: 2.0,
+                    irrep: Some((*irrep).into()),
+                    label: Some(format!("1{irrep}")),
+                })
+                .collect(),
+            coefficients: DMatrix::from_fn(2, 2, |mu, k| columns[k][mu]),
+            overlap: DMatrix::identity(2, 2),
+            lambdas: Vec::new(),
+            sum_occupied_ev: 0.0,
+            notes: Vec::new(),
+        }
+    }
+
+    /// Two levels of one irrep whose characters exchange are paired in energy order
+    /// (non-crossing rule, von Neumann and Wigner 1929), not by overlap.
+    #[test]
+    fn same_irrep_levels_keep_their_order_through_an_exchange_of_character() {
+        let before = point(
+            "C2v",
+            &["a1", "a1"],
+            &[-2.0, -1.0],
+            &[[1.0, 0.0], [0.0, 1.0]],
+        );
+        let after = point(
+            "C2v",
+            &["a1", "a1"],
+            &[-1.9, -1.1],
+            &[[0.0, 1.0], [1.0, 0.0]],
+        );
+        assert_eq!(match_levels(&before, &after), vec![0, 1]);
+    }
+
+    /// When the irrep names swap between points (an axis convention flip) the irrep blocks
+    /// do not overlap, and the levels are followed by overlap instead.
+    #[test]
+    fn swapped_irrep_names_fall_back_to_overlap() {
+        let before = point(
+            "C2v",
+            &["b1", "b2"],
+            &[-2.0, -1.0],
+            &[[1.0, 0.0], [0.0, 1.0]],
+        );
+        let after = point(
+            "C2v",
+            &["b2", "b1"],
+            &[-2.0, -1.0],
+            &[[1.0, 0.0], [0.0, 1.0]],
+        );
+        assert_eq!(match_levels(&before, &after), vec![0, 1]);
+        // With the functions exchanged as well the names agree again and pair them.
+        let exchanged = point(
+            "C2v",
+            &["b2", "b1"],
+            &[-2.0, -1.0],
+            &[[0.0, 1.0], [1.0, 0.0]],
+        );
+        assert_eq!(match_levels(&before, &exchanged), vec![1, 0]);
+    }
+
+    /// A change of point group is bridged by overlap.
+    #[test]
+    fn a_group_change_is_followed_by_overlap() {
+        let before = point(
+            "C3v",
+            &["a1", "a1"],
+            &[-2.0, -1.0],
+            &[[0.6, 0.8], [0.8, -0.6]],
+        );
+        let after = point(
+            "D3h",
+            &["a1'", "a2''"],
+            &[-2.0, -1.0],
+            &[[0.8, -0.6], [0.6, 0.8]],
+        );
+        assert_eq!(match_levels(&before, &after), vec![1, 0]);
+    }
+}
