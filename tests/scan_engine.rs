@@ -288,3 +288,41 @@ fn ninety_one_points_give_continuous_curves_through_an_avoided_crossing() -> Tes
     }
     Ok(())
 }
+
+/// Bending one C–H of benzene in the ring plane through the D6h geometry (120°) splits
+/// each degenerate e level linearly in the bend (first-order perturbation of a degenerate
+/// level; e.g. Atkins and Friedman, Molecular Quantum Mechanics, from memory), and the bends
+/// to either side are mirror images: the component that is lower on one side is higher on
+/// the other, so the two followed curves cross at 120°, where they are degenerate.
+#[test]
+fn degenerate_levels_that_split_linearly_cross_at_the_symmetric_point() -> TestResult {
+    let path =
+        Path::new(env!("CARGO_MANIFEST_DIR")).join("tests/reference/rdkit_geometries/benzene.xyz");
+    let benzene = open_path(&path)?.project.molecule;
+    let plan = request(Coordinate::Angle { i: 1, j: 0, k: 6 }, 100.0, 140.0, 81);
+    let scan = run_scan(&benzene, &Settings::default(), &plan, &ScanProgress::new())?;
+    assert_eq!(scan.points[40].point_group.as_deref(), Some("D6h"));
+    let energy = |k: usize, p: usize| scan.curves[k].energies[p].unwrap_or(f64::NAN);
+    let mut crossings = 0;
+    for a in 0..scan.curves.len() {
+        for b in a + 1..scan.curves.len() {
+            // The file geometry is D6h to about 1e-5 eV in these levels.
+            let degenerate = (energy(a, 40) - energy(b, 40)).abs() < 1e-3;
+            let split = (energy(a, 0) - energy(b, 0)).abs() > 0.01;
+            if degenerate && split {
+                // Mirror images: the spectrum at 100° equals the one at 140°, swapped.
+                assert!(
+                    (energy(a, 0) - energy(b, 80)).abs() < 1e-4,
+                    "curves {a}, {b}"
+                );
+                assert!(
+                    (energy(b, 0) - energy(a, 80)).abs() < 1e-4,
+                    "curves {a}, {b}"
+                );
+                crossings += 1;
+            }
+        }
+    }
+    assert!(crossings >= 2, "{crossings} crossing pairs");
+    Ok(())
+}

@@ -19,7 +19,7 @@
 
 use std::collections::BTreeMap;
 
-use nalgebra::DMatrix;
+use nalgebra::{DMatrix, DVector};
 
 use super::point::{Lambda, LambdaKey, PointData};
 use super::{Curve, LambdaSeries};
@@ -51,14 +51,63 @@ impl Follower {
                     return;
                 }
                 let pairing = match_levels(before, point);
-                match &self.mo_of[*before_index] {
+                let map = match &self.mo_of[*before_index] {
                     Some(map) => map.iter().map(|&mo| pairing[mo]).collect(),
                     None => return,
-                }
+                };
+                let mut kept = point.clone();
+                align_degenerate(before, &pairing, &mut kept);
+                self.mo_of[index] = Some(map);
+                self.previous = Some((index, kept));
+                return;
             }
         };
         self.mo_of[index] = Some(map);
         self.previous = Some((index, point.clone()));
+    }
+}
+
+/// Levels closer than this (eV) form one degenerate set (the solver's own tolerance).
+const DEGENERATE_EV: f64 = crate::eht::DEGENERACY_TOLERANCE_EV;
+
+/// Inside a degenerate set any rotation of the MOs is as good as another, so the solver's
+/// choice says nothing about where each component goes next. For following only, each
+/// component is replaced by the previous point's matched MO projected onto the set
+/// (then S-orthonormalized in order), so that levels that split linearly on leaving a
+/// high-symmetry point continue smoothly through it.
+fn align_degenerate(before: &PointData, pairing: &[usize], now: &mut PointData) {
+    let count = now.levels.len();
+    let mut start = 0;
+    while start < count {
+        let mut end = start + 1;
+        while end < count
+            && (now.levels[end].energy_ev - now.levels[end - 1].energy_ev).abs() < DEGENERATE_EV
+        {
+            end += 1;
+        }
+        if end - start > 1 {
+            let set = now.coefficients.columns(start, end - start).into_owned();
+            let s_set = &now.overlap * &set;
+            let mut placed: Vec<DVector<f64>> = Vec::new();
+            for (from, &to) in pairing.iter().enumerate() {
+                if !(start..end).contains(&to) {
+                    continue;
+                }
+                let previous = before.coefficients.column(from);
+                let mut vector = &set * (s_set.transpose() * previous);
+                for other in &placed {
+                    let projection = (other.transpose() * &now.overlap * &vector)[(0, 0)];
+                    vector -= other * projection;
+                }
+                let norm = (vector.transpose() * &now.overlap * &vector)[(0, 0)].sqrt();
+                if norm > 1e-6 {
+                    vector /= norm;
+                    now.coefficients.set_column(to, &vector);
+                    placed.push(vector);
+                }
+            }
+        }
+        start = end;
     }
 }
 
