@@ -12,4 +12,5 @@ pub mod localize;
 pub mod lone_pair_mixing;
 pub mod project;
 pub mod report;
+pub mod scan;
 pub mod symmetry;

@@ -2,6 +2,7 @@
 //! writes a file lives in its own module here.
 
 mod export;
+mod scan;
 
 use std::io::Write;
 use std::path::{Path, PathBuf};
@@ -83,6 +84,9 @@ enum Command {
         #[arg(long)]
         force: bool,
     },
+    /// Walsh scan: step one coordinate and write every level's energy, λ and Σε as CSV
+    /// or a Walsh diagram as SVG. Atom indices are 0-based, as in the JSON report.
+    Scan(scan::ScanArgs),
 }
 
 /// The hybrid models of DESIGN §4.4.
@@ -172,6 +176,7 @@ pub fn main() -> ExitCode {
             };
             export::export(&file, &output, charge, &request)
         }
+        Some(Command::Scan(args)) => scan::scan(&args),
         None => open_window(cli.file, cli.screenshot),
     }
 }

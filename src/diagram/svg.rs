@@ -56,7 +56,7 @@ pub fn escape_xml(text: &str) -> String {
     out
 }
 
-fn number(value: f64) -> String {
+pub(crate) fn number(value: f64) -> String {
     let text = format!("{value:.2}");
     let text = text.trim_end_matches('0').trim_end_matches('.');
     if text == "-0" {
@@ -66,7 +66,7 @@ fn number(value: f64) -> String {
     }
 }
 
-fn colour(rgb: [u8; 3], greyscale: bool) -> String {
+pub(crate) fn colour(rgb: [u8; 3], greyscale: bool) -> String {
     let [r, g, b] = if greyscale { to_grey(rgb) } else { rgb };
     format!("#{r:02x}{g:02x}{b:02x}")
 }
@@ -75,7 +75,7 @@ const INK: [u8; 3] = [34, 34, 34];
 const FAINT: [u8; 3] = [130, 130, 130];
 
 /// Label text as `tspan` runs with baseline shifts that are undone after each run.
-fn label_markup(label: &str, font_size: f64) -> String {
+pub(crate) fn label_markup(label: &str, font_size: f64) -> String {
     let mut out = String::new();
     let shift = font_size * 0.3;
     for (text, script) in label_runs(label) {
