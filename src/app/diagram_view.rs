@@ -278,9 +278,7 @@ fn label_job(
         job.append("  ", 0.0, normal.clone());
     }
     for (text, script) in label_runs(&level.label) {
-        // egui's built-in font has no typographic primes; ASCII ones keep the label legible
-        // everywhere (the SVG writer keeps ′ and ″).
-        let text = text.replace('″', "''").replace('′', "'");
+        let text = super::theme::screen_label(&text);
         let format = match script {
             Script::Normal => normal.clone(),
             Script::Sub => small(egui::Align::BOTTOM),

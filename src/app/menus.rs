@@ -13,6 +13,8 @@ pub enum DialogAnswer {
     Open(PathBuf),
     SaveAs(PathBuf),
     ExportSvg(PathBuf),
+    ExportWalshSvg(PathBuf),
+    ExportWalshCsv(PathBuf),
 }
 
 /// Open dialogs in flight.
@@ -58,15 +60,49 @@ impl Dialogs {
     }
 
     pub fn ask_export_svg(&self, suggested: String) {
+        self.ask_save(
+            "Export the diagram as SVG",
+            format!("{suggested}.svg"),
+            ("SVG image", &["svg"]),
+            DialogAnswer::ExportSvg,
+        );
+    }
+
+    pub fn ask_export_walsh_svg(&self, suggested: String) {
+        self.ask_save(
+            "Export the Walsh diagram as SVG",
+            format!("{suggested}-walsh.svg"),
+            ("SVG image", &["svg"]),
+            DialogAnswer::ExportWalshSvg,
+        );
+    }
+
+    pub fn ask_export_walsh_csv(&self, suggested: String) {
+        self.ask_save(
+            "Export the Walsh scan as CSV",
+            format!("{suggested}-walsh.csv"),
+            ("CSV table", &["csv"]),
+            DialogAnswer::ExportWalshCsv,
+        );
+    }
+
+    /// A save dialog on its own thread; `answer` wraps the chosen path.
+    fn ask_save(
+        &self,
+        title: &'static str,
+        file_name: String,
+        filter: (&'static str, &'static [&'static str]),
+        answer: fn(PathBuf) -> DialogAnswer,
+    ) {
         let sender = self.sender.clone();
         std::thread::spawn(move || {
             let picked = rfd::FileDialog::new()
-                .set_title("Export the diagram as SVG")
-                .set_file_name(format!("{suggested}.svg"))
-                .add_filter("SVG image", &["svg"])
+                .set_title(title)
+                .set_file_name(file_name)
+                .add_filter(filter.0, filter.1)
                 .save_file();
             if let Some(path) = picked {
-                let _ = sender.send(DialogAnswer::ExportSvg(path));
+                let _ = sender.send(answer(path));
             }
         });
     }
@@ -78,6 +114,8 @@ impl Dialogs {
                 DialogAnswer::Open(path) => state.request_open(path),
                 DialogAnswer::SaveAs(path) => state.save_to(path),
                 DialogAnswer::ExportSvg(path) => state.export_svg(path),
+                DialogAnswer::ExportWalshSvg(path) => state.export_walsh_svg(path),
+                DialogAnswer::ExportWalshCsv(path) => state.export_walsh_csv(path),
             }
         }
     }
@@ -174,6 +212,21 @@ pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
                 dialogs.ask_export_svg(state.project.molecule.name.clone());
                 ui.close();
             }
+            let scanned = state.walsh.scan.is_some();
+            if ui
+                .add_enabled(scanned, egui::Button::new("Export Walsh diagram as SVG…"))
+                .clicked()
+            {
+                dialogs.ask_export_walsh_svg(state.project.molecule.name.clone());
+                ui.close();
+            }
+            if ui
+                .add_enabled(scanned, egui::Button::new("Export Walsh scan as CSV…"))
+                .clicked()
+            {
+                dialogs.ask_export_walsh_csv(state.project.molecule.name.clone());
+                ui.close();
+            }
         });
         ui.menu_button("Edit", |ui| {
             if ui
@@ -211,6 +264,7 @@ pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
             {
                 state.dirty = true;
             }
+            ui.checkbox(&mut state.walsh.open, "Walsh scan window");
             ui.checkbox(&mut state.frame_timer.visible, "Frame time (debug)");
             if ui.button("Reset view").clicked() {
                 state.camera = super::structure_view::Camera::facing(&state.project.molecule);

@@ -10,12 +10,14 @@ mod menus;
 mod molecule_panel;
 mod parameter_editor;
 mod recovery;
+mod scan_job;
 mod screenshot;
 mod settings_window;
 mod state;
 mod structure_view;
 mod theme;
 mod transition;
+mod walsh_view;
 mod worker;
 
 #[cfg(test)]
@@ -116,6 +118,7 @@ impl DiptychApp {
             &mut self.state.project.settings,
             &elements,
         );
+        walsh_view::show(ui.ctx(), &mut self.state, &self.dialogs);
         self.error_dialog(ui);
 
         let now = ui.input(|input| input.time);
@@ -136,6 +139,13 @@ impl DiptychApp {
         ui.horizontal(|ui| {
             ui.heading("Structure");
             self.point_group_badge(ui);
+            if ui
+                .button("Walsh scan…")
+                .on_hover_text("Follow the orbitals while one coordinate changes")
+                .clicked()
+            {
+                self.state.walsh.open = true;
+            }
         });
         builder::show(ui, &mut self.state);
         if ui.input(|input| input.key_pressed(egui::Key::Delete))

@@ -72,6 +72,8 @@ pub struct AppState {
     navigated_history: bool,
     /// Recently opened or saved files, newest first (kept between sessions).
     pub recent_files: Vec<PathBuf>,
+    /// The Walsh scan window: form, running scan, last result.
+    pub walsh: super::walsh_view::WalshPanel,
     /// The debug overlay's frame-time counter (View menu).
     pub frame_timer: super::frame_timer::FrameTimer,
     /// One-line message for the status bar.
@@ -132,6 +134,7 @@ impl AppState {
             settings_open: false,
             navigated_history: false,
             recent_files: Vec::new(),
+            walsh: Default::default(),
             frame_timer: Default::default(),
             status,
             error_dialog: None,
@@ -391,15 +394,7 @@ impl AppState {
             ..Default::default()
         };
         let svg = diptych::diagram::to_svg(diagram, &options);
-        match diptych::chem::io::write_atomically(&path, svg.as_bytes()) {
-            Ok(()) => self.status = format!("Exported {}", path.display()),
-            Err(error) => {
-                self.error_dialog = Some(format!(
-                    "Could not export the diagram.\n\n{}: {error}",
-                    path.display()
-                ))
-            }
-        }
+        self.write_export(&path, svg.as_bytes(), "the diagram");
     }
 
     /// Puts `path` first in the recent-files list (no duplicates, at most `MAX_RECENT`).
@@ -408,6 +403,44 @@ impl AppState {
         self.recent_files.retain(|known| *known != path);
         self.recent_files.insert(0, path);
         self.recent_files.truncate(MAX_RECENT);
+    }
+
+    /// Writes the last Walsh scan as an SVG plot (our writer), atomically.
+    pub fn export_walsh_svg(&mut self, path: PathBuf) {
+        let Some(scan) = self.walsh.scan.clone() else {
+            self.error_dialog = Some("There is no Walsh scan to export yet.".into());
+            return;
+        };
+        let options = diptych::scan::svg::WalshSvgOptions {
+            marker: scan.request.coordinate.measure(&self.project.molecule).ok(),
+            ..Default::default()
+        };
+        let svg = diptych::scan::svg::walsh_svg(&scan, &options);
+        self.write_export(&path, svg.as_bytes(), "the Walsh diagram");
+    }
+
+    /// Writes the last Walsh scan as a CSV table, atomically.
+    pub fn export_walsh_csv(&mut self, path: PathBuf) {
+        let Some(scan) = self.walsh.scan.clone() else {
+            self.error_dialog = Some("There is no Walsh scan to export yet.".into());
+            return;
+        };
+        let csv = diptych::scan::csv::to_csv(&scan);
+        self.write_export(&path, csv.as_bytes(), "the Walsh scan");
+    }
+
+    /// Writes an exported file atomically; the status line or an error dialog says how
+    /// it went.
+    pub fn write_export(&mut self, path: &std::path::Path, bytes: &[u8], what: &str) {
+        match diptych::chem::io::write_atomically(path, bytes) {
+            Ok(()) => self.status = format!("Exported {}", path.display()),
+            Err(error) => {
+                self.error_dialog = Some(format!(
+                    "Could not export {what}.\n\n{}: {error}",
+                    path.display()
+                ))
+            }
+        }
     }
 
     /// The path to save to without asking, if the document came from a project file.

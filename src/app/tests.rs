@@ -644,3 +644,70 @@ fn the_frame_time_overlay_is_shown_from_the_view_menu() {
     harness.run_steps(3);
     harness.get_by_label_contains("frame CPU");
 }
+
+#[test]
+fn a_walsh_scan_runs_off_the_ui_thread_and_a_point_sets_the_geometry() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    harness.get_by_label("Walsh scan…").click();
+    harness.run_steps(2);
+    // The default form is ammonia's pyramidalization from 90° to 120°.
+    harness.get_by_label("Run scan").click();
+    let start = Instant::now();
+    while harness.state().state.walsh.scan.is_none() {
+        harness.step();
+        assert!(start.elapsed() < Duration::from_secs(60), "scan finishes");
+        std::thread::sleep(Duration::from_millis(5));
+    }
+    harness.run_steps(2);
+    let scan = harness.state().state.walsh.scan.clone().expect("scan");
+    assert_eq!(scan.points.len(), 31);
+    harness.get_by_label_contains("31 points");
+    // Walsh 1953 (from memory): the lone-pair level rises on flattening.
+    let homo = scan
+        .curves
+        .iter()
+        .filter(|curve| curve.occupancies[0].is_some_and(|o| o > 0.0))
+        .max_by(|a, b| {
+            a.energies[0]
+                .unwrap_or(f64::MIN)
+                .total_cmp(&b.energies[0].unwrap_or(f64::MIN))
+        })
+        .expect("occupied curves");
+    assert!(homo.energies[30] > homo.energies[0], "{:?}", homo.energies);
+
+    let original = harness.state().state.project.molecule.clone();
+    super::walsh_view::take_point_geometry(&mut harness.state_mut().state, &scan, 30);
+    // The geometry change is seen by the frame's history diff like any other edit.
+    harness.state_mut().state.document_changed();
+    wait_for_analysis(&mut harness);
+    let analysis = harness.state().state.analysis.clone().expect("analysis");
+    let group = analysis.symmetry.as_ref().map(|s| s.group.to_string());
+    assert_eq!(group.as_deref(), Some("D3h"), "planar ammonia");
+    assert_ne!(harness.state().state.project.molecule, original);
+}
+
+#[test]
+fn a_bad_walsh_coordinate_is_refused_before_any_work() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    {
+        let walsh = &mut harness.state_mut().state.walsh;
+        walsh.open = true;
+        // A symmetric bend needs exactly two ligands; ammonia's N has three.
+        walsh.kind = super::walsh_view::CoordinateKind::SymmetricBend;
+    }
+    harness.run_steps(2);
+    harness.get_by_label("Run scan").click();
+    harness.run_steps(2);
+    assert!(harness.state().state.walsh.job.is_none(), "nothing started");
+    let error = harness
+        .state()
+        .state
+        .walsh
+        .error
+        .clone()
+        .expect("error shown");
+    assert!(error.contains("neighbours"), "{error}");
+    harness.get_by_label_contains("neighbours");
+}

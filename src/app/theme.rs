@@ -64,3 +64,9 @@ pub const ACCENT: Color32 = Color32::from_rgb(0, 128, 128);
 pub fn level_colour(label: &str, ink: Color32) -> Color32 {
     diptych::diagram::style::level_rgb(label).map_or(ink, |[r, g, b]| Color32::from_rgb(r, g, b))
 }
+
+/// A label as the screen shows it: egui's built-in font has no typographic primes, so
+/// ASCII ones keep labels such as 1a2″ legible everywhere (the SVG writer keeps ′ and ″).
+pub fn screen_label(text: &str) -> String {
+    text.replace('″', "''").replace('′', "'")
+}

@@ -51,9 +51,15 @@ impl Coordinate {
             Coordinate::Bond { i, j } => format!("bond {i}–{j}"),
             Coordinate::Angle { i, j, k } => format!("angle {i}–{j}–{k}"),
             Coordinate::Dihedral { i, j, k, l } => format!("dihedral {i}–{j}–{k}–{l}"),
-            Coordinate::Pyramidalize { centre } => format!("pyramidalization X–{centre}–X"),
-            Coordinate::SymmetricBend { centre } => format!("symmetric bend X–{centre}–X"),
-            Coordinate::SymmetricStretch { centre } => format!("symmetric stretch {centre}–X"),
+            Coordinate::Pyramidalize { centre } => {
+                format!("pyramidalization, X–A–X at atom {centre}")
+            }
+            Coordinate::SymmetricBend { centre } => {
+                format!("symmetric bend, X–A–X at atom {centre}")
+            }
+            Coordinate::SymmetricStretch { centre } => {
+                format!("symmetric stretch, A–X at atom {centre}")
+            }
         };
         format!("{text} ({})", self.unit())
     }

@@ -1,0 +1,598 @@
+//! The Walsh scan window (DESIGN §2): choose a coordinate, a range and a point count; the
+//! library's scan engine (`diptych::scan`) runs off the UI thread with progress and
+//! cancel; the result is drawn with egui_plot as MO energies against the coordinate
+//! (coloured by irrep, legend, end labels), λ of every bond and lone pair, and the sum of
+//! occupied orbital energies, on linked x axes, with a marker at the current geometry.
+//! Clicking a plot sets the document's geometry to the nearest scan point (an ordinary,
+//! undoable edit). Walsh diagrams: A. D. Walsh, J. Chem. Soc. 1953, 2260.
+
+use std::sync::Arc;
+
+use diptych::scan::{Coordinate, Lambda, Scan, ScanRequest};
+use eframe::egui;
+use egui_plot::{Legend, Line, Plot, PlotPoints, Points, Text, VLine};
+
+use super::menus::Dialogs;
+use super::scan_job::ScanJob;
+use super::state::AppState;
+use super::theme::{ACCENT, level_colour, screen_label};
+
+/// The coordinates offered in the window (the library's `Coordinate` without atoms).
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum CoordinateKind {
+    Pyramidalize,
+    SymmetricBend,
+    SymmetricStretch,
+    Angle,
+    Bond,
+    Dihedral,
+}
+
+impl CoordinateKind {
+    const ALL: [CoordinateKind; 6] = [
+        CoordinateKind::Pyramidalize,
+        CoordinateKind::SymmetricBend,
+        CoordinateKind::SymmetricStretch,
+        CoordinateKind::Angle,
+        CoordinateKind::Bond,
+        CoordinateKind::Dihedral,
+    ];
+
+    fn name(self) -> &'static str {
+        match self {
+            CoordinateKind::Pyramidalize => "pyramidalization of AXn (X–A–X angle)",
+            CoordinateKind::SymmetricBend => "symmetric bend of AX2 (X–A–X angle)",
+            CoordinateKind::SymmetricStretch => "symmetric stretch (all A–X bonds)",
+            CoordinateKind::Angle => "bond angle I–J–K",
+            CoordinateKind::Bond => "bond length I–J",
+            CoordinateKind::Dihedral => "dihedral I–J–K–L",
+        }
+    }
+
+    /// How many atom indices the coordinate needs.
+    fn atom_count(self) -> usize {
+        match self {
+            CoordinateKind::Pyramidalize
+            | CoordinateKind::SymmetricBend
+            | CoordinateKind::SymmetricStretch => 1,
+            CoordinateKind::Bond => 2,
+            CoordinateKind::Angle => 3,
+            CoordinateKind::Dihedral => 4,
+        }
+    }
+
+    fn coordinate(self, atoms: [usize; 4]) -> Coordinate {
+        let [i, j, k, l] = atoms;
+        match self {
+            CoordinateKind::Pyramidalize => Coordinate::Pyramidalize { centre: i },
+            CoordinateKind::SymmetricBend => Coordinate::SymmetricBend { centre: i },
+            CoordinateKind::SymmetricStretch => Coordinate::SymmetricStretch { centre: i },
+            CoordinateKind::Angle => Coordinate::Angle { i, j, k },
+            CoordinateKind::Bond => Coordinate::Bond { i, j },
+            CoordinateKind::Dihedral => Coordinate::Dihedral { i, j, k, l },
+        }
+    }
+
+    /// A range that shows the classic Walsh argument for this coordinate.
+    fn default_range(self) -> (f64, f64) {
+        match self {
+            CoordinateKind::Pyramidalize => (90.0, 120.0),
+            CoordinateKind::SymmetricBend | CoordinateKind::Angle => (90.0, 180.0),
+            CoordinateKind::SymmetricStretch | CoordinateKind::Bond => (0.8, 1.6),
+            CoordinateKind::Dihedral => (0.0, 180.0),
+        }
+    }
+}
+
+/// The window's form, the running job and the last finished scan.
+pub struct WalshPanel {
+    pub open: bool,
+    pub kind: CoordinateKind,
+    pub atoms: [usize; 4],
+    pub from: f64,
+    pub to: f64,
+    pub steps: usize,
+    pub job: Option<ScanJob>,
+    pub scan: Option<Arc<Scan>>,
+    pub error: Option<String>,
+    pub lambda_model: LambdaModel,
+}
+
+impl Default for WalshPanel {
+    fn default() -> Self {
+        let kind = CoordinateKind::Pyramidalize;
+        let (from, to) = kind.default_range();
+        WalshPanel {
+            open: false,
+            kind,
+            atoms: [0, 1, 2, 3],
+            from,
+            to,
+            steps: 31,
+            job: None,
+            scan: None,
+            error: None,
+            lambda_model: LambdaModel::Geometric,
+        }
+    }
+}
+
+impl WalshPanel {
+    /// The request the form describes.
+    pub fn request(&self) -> ScanRequest {
+        ScanRequest {
+            coordinate: self.kind.coordinate(self.atoms),
+            from: self.from,
+            to: self.to,
+            steps: self.steps,
+        }
+    }
+
+    /// Takes a finished scan from the job.
+    pub fn poll(&mut self) {
+        let Some(job) = &self.job else {
+            return;
+        };
+        match job.poll() {
+            Some(Ok(scan)) => {
+                self.scan = Some(Arc::new(scan));
+                self.error = None;
+                self.job = None;
+            }
+            Some(Err(message)) => {
+                self.error = Some(message);
+                self.job = None;
+            }
+            None => {}
+        }
+    }
+
+    /// Checks the form against the molecule before anything runs (the engine checks
+    /// again; this gives the message at once).
+    fn start(
+        &mut self,
+        context: &egui::Context,
+        state_molecule: &diptych::chem::Molecule,
+        settings: &diptych::analysis::Settings,
+    ) {
+        if let Some(job) = &self.job {
+            job.cancel();
+        }
+        let request = self.request();
+        if let Err(error) = request.plan(state_molecule) {
+            self.error = Some(error.to_string());
+            self.job = None;
+            return;
+        }
+        self.error = None;
+        self.job = Some(ScanJob::start(
+            context.clone(),
+            state_molecule.clone(),
+            settings.clone(),
+            request,
+        ));
+    }
+}
+
+/// Draws the window when it is open.
+pub fn show(ctx: &egui::Context, state: &mut AppState, dialogs: &Dialogs) {
+    state.walsh.poll();
+    let mut open = state.walsh.open;
+    egui::Window::new("Walsh scan")
+        .open(&mut open)
+        .default_size([900.0, 780.0])
+        .resizable(true)
+        .show(ctx, |ui| {
+            form(ui, state);
+            ui.separator();
+            plots(ui, state, dialogs);
+        });
+    state.walsh.open = open;
+}
+
+fn form(ui: &mut egui::Ui, state: &mut AppState) {
+    let atom_count = state.project.molecule.len();
+    let walsh = &mut state.walsh;
+    ui.horizontal_wrapped(|ui| {
+        let label = ui.label("Coordinate");
+        let before = walsh.kind;
+        egui::ComboBox::from_id_salt("walsh coordinate")
+            .selected_text(walsh.kind.name())
+            .show_ui(ui, |ui| {
+                for kind in CoordinateKind::ALL {
+                    ui.selectable_value(&mut walsh.kind, kind, kind.name());
+                }
+            })
+            .response
+            .labelled_by(label.id);
+        if walsh.kind != before {
+            (walsh.from, walsh.to) = walsh.kind.default_range();
+        }
+    });
+    ui.horizontal_wrapped(|ui| {
+        let names = ["I", "J", "K", "L"];
+        let count = walsh.kind.atom_count();
+        for (slot, name) in names.iter().enumerate().take(count) {
+            let shown = if count == 1 { "centre atom" } else { name };
+            let label = ui.label(shown);
+            ui.add(
+                egui::DragValue::new(&mut walsh.atoms[slot])
+                    .range(0..=atom_count.saturating_sub(1)),
+            )
+            .labelled_by(label.id);
+        }
+        if let Some(selected) = state.selected_atom
+            && ui
+                .button(format!("use selected atom {selected}"))
+                .on_hover_text("Put the atom selected in the Structure panel in the first field")
+                .clicked()
+        {
+            walsh.atoms[0] = selected;
+        }
+        ui.weak("(atom numbers as in the Structure panel, from 0)");
+    });
+    let unit = walsh.kind.coordinate(walsh.atoms).unit();
+    let run_clicked = ui.horizontal_wrapped(|ui| {
+        let label = ui.label(format!("from ({unit})"));
+        ui.add(
+            egui::DragValue::new(&mut walsh.from)
+                .speed(0.1)
+                .max_decimals(3),
+        )
+        .labelled_by(label.id);
+        let label = ui.label(format!("to ({unit})"));
+        ui.add(
+            egui::DragValue::new(&mut walsh.to)
+                .speed(0.1)
+                .max_decimals(3),
+        )
+        .labelled_by(label.id);
+        let label = ui.label("points");
+        ui.add(egui::DragValue::new(&mut walsh.steps).range(2..=diptych::scan::MAX_POINTS))
+            .labelled_by(label.id);
+        let running = walsh.job.is_some();
+        let run = ui
+            .add_enabled(!running, egui::Button::new("Run scan"))
+            .clicked();
+        if let Some(job) = &walsh.job {
+            ui.add(
+                egui::ProgressBar::new(job.progress.fraction() as f32)
+                    .desired_width(160.0)
+                    .show_percentage(),
+            );
+            if ui.button("Cancel scan").clicked() {
+                job.cancel();
+            }
+            ui.ctx()
+                .request_repaint_after(std::time::Duration::from_millis(100));
+        }
+        run
+    });
+    if run_clicked.inner {
+        let molecule = state.project.molecule.clone();
+        let settings = state.project.settings.clone();
+        state.walsh.start(ui.ctx(), &molecule, &settings);
+    }
+    if let Some(error) = &state.walsh.error {
+        ui.colored_label(ui.visuals().error_fg_color, error);
+    }
+}
+
+fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
+    let Some(scan) = state.walsh.scan.clone() else {
+        ui.weak(
+            "Run a scan to see how each orbital's energy, the hybridization index λ and the \
+             sum of occupied orbital energies change with the coordinate.",
+        );
+        return;
+    };
+    ui.horizontal(|ui| {
+        ui.strong(format!(
+            "{} — {} points",
+            scan.request.coordinate.describe(),
+            scan.points.len()
+        ));
+        let failed = scan.failed_points().len();
+        if failed > 0 {
+            ui.colored_label(
+                ui.visuals().warn_fg_color,
+                format!("{failed} point(s) failed and are left out"),
+            );
+        }
+        if ui.button("Export SVG…").clicked() {
+            dialogs.ask_export_walsh_svg(state.project.molecule.name.clone());
+        }
+        if ui.button("Export CSV…").clicked() {
+            dialogs.ask_export_walsh_csv(state.project.molecule.name.clone());
+        }
+    });
+    ui.weak("Click a plot to take the geometry of the nearest point (Ctrl+Z undoes it).");
+    let marker = scan
+        .request
+        .coordinate
+        .measure(&state.project.molecule)
+        .ok();
+    let link = egui::Id::unique("walsh x axes");
+    let available = ui.available_height().max(300.0);
+    let ink = ui.visuals().text_color();
+    let mut clicked_at = None;
+
+    let (low, high) = energy_window(&scan);
+    let response = Plot::new("walsh energies")
+        .height(available * 0.55)
+        .legend(Legend::default())
+        .link_axis(link, [true, false])
+        .y_axis_label("E / eV")
+        .default_y_bounds(low, high)
+        .allow_scroll(false)
+        .show(ui, |plot| {
+            for curve in &scan.curves {
+                let colour = level_colour(&curve.label, ink);
+                let legend = curve.irrep.clone().unwrap_or_else(|| curve.label.clone());
+                for segment in segments(&scan, &curve.energies) {
+                    let last = segment.last().copied();
+                    plot.line(
+                        Line::new(screen_label(&legend), PlotPoints::from(segment))
+                            .color(colour)
+                            .width(1.8),
+                    );
+                    if let Some([x, y]) = last
+                        && curve.energies.last().copied().flatten().is_some()
+                        && (low..=high).contains(&y)
+                    {
+                        plot.text(
+                            Text::new(
+                                screen_label(&legend),
+                                [x, y].into(),
+                                egui::RichText::new(end_label(curve)).color(colour),
+                            )
+                            .anchor(egui::Align2::LEFT_CENTER),
+                        );
+                    }
+                }
+            }
+            if let Some(value) = marker {
+                plot.vline(
+                    VLine::new("current geometry", value)
+                        .color(ACCENT)
+                        .width(1.5),
+                );
+            }
+            plot.pointer_coordinate()
+        });
+    if response.response.clicked() {
+        clicked_at = response.inner;
+    }
+
+    ui.horizontal(|ui| {
+        ui.label("λ from");
+        ui.radio_value(
+            &mut state.walsh.lambda_model,
+            LambdaModel::Geometric,
+            "bond angles (Coulson)",
+        );
+        ui.radio_value(
+            &mut state.walsh.lambda_model,
+            LambdaModel::Localized,
+            "localized MOs",
+        );
+    });
+    let groups = lambda_groups(&scan, state.walsh.lambda_model.key());
+    let response = Plot::new("walsh lambda")
+        .height(available * 0.22)
+        .legend(Legend::default().position(egui_plot::Corner::LeftTop))
+        .link_axis(link, [true, false])
+        .y_axis_label("λ (sp^λ)")
+        .default_y_bounds(0.0, LAMBDA_TOP)
+        .allow_scroll(false)
+        .show(ui, |plot| {
+            for group in &groups {
+                let finite: Vec<Option<f64>> = group
+                    .values
+                    .iter()
+                    .map(|value| match value {
+                        Some(Lambda::Finite(lambda)) => Some(*lambda),
+                        _ => None,
+                    })
+                    .collect();
+                for segment in segments(&scan, &finite) {
+                    plot.line(Line::new(group.name.clone(), PlotPoints::from(segment)).width(1.8));
+                }
+                // A pure p orbital (λ → ∞) is drawn at the top edge, marked as such.
+                let pure: Vec<[f64; 2]> = group
+                    .values
+                    .iter()
+                    .zip(&scan.points)
+                    .filter(|(value, _)| matches!(value, Some(Lambda::PureP)))
+                    .map(|(_, point)| [point.value, LAMBDA_TOP])
+                    .collect();
+                if !pure.is_empty() {
+                    plot.points(
+                        Points::new(
+                            format!("{} pure p (λ = ∞)", group.name),
+                            PlotPoints::from(pure),
+                        )
+                        .radius(4.0),
+                    );
+                }
+            }
+            if let Some(value) = marker {
+                plot.vline(VLine::new("current geometry", value).color(ACCENT));
+            }
+            plot.pointer_coordinate()
+        });
+    if response.response.clicked() {
+        clicked_at = response.inner;
+    }
+
+    let sums: Vec<Option<f64>> = scan.points.iter().map(|p| p.sum_occupied_ev).collect();
+    let response = Plot::new("walsh sum")
+        .height(available * 0.18)
+        .link_axis(link, [true, false])
+        .y_axis_label("Σ occ·ε / eV")
+        .x_axis_label(scan.request.coordinate.describe())
+        .allow_scroll(false)
+        .show(ui, |plot| {
+            for segment in segments(&scan, &sums) {
+                plot.line(
+                    Line::new(
+                        "sum of occupied orbital energies",
+                        PlotPoints::from(segment),
+                    )
+                    .color(ink),
+                );
+            }
+            if let Some(value) = marker {
+                plot.vline(VLine::new("current geometry", value).color(ACCENT));
+            }
+            plot.pointer_coordinate()
+        });
+    if response.response.clicked() {
+        clicked_at = response.inner;
+    }
+
+    if let Some(at) = clicked_at
+        && let Some(index) = scan.nearest_point(at.x)
+        && scan.points[index].failure.is_none()
+    {
+        take_point_geometry(state, &scan, index);
+    }
+}
+
+/// Which model's λ the second plot shows.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum LambdaModel {
+    Geometric,
+    Localized,
+}
+
+impl LambdaModel {
+    /// The model's name in the scan's `LambdaKey`.
+    fn key(self) -> &'static str {
+        match self {
+            LambdaModel::Geometric => "geometric",
+            LambdaModel::Localized => "localized",
+        }
+    }
+}
+
+/// Hybrids of one model whose λ agree at every point (symmetry-equivalent bonds), drawn
+/// as one curve named after all of them.
+struct LambdaGroup {
+    name: String,
+    values: Vec<Option<Lambda>>,
+}
+
+fn lambda_groups(scan: &Scan, model: &str) -> Vec<LambdaGroup> {
+    let same = |a: &[Option<Lambda>], b: &[Option<Lambda>]| {
+        a.len() == b.len()
+            && a.iter().zip(b).all(|pair| match pair {
+                (Some(Lambda::Finite(x)), Some(Lambda::Finite(y))) => (x - y).abs() < 1e-4,
+                (x, y) => x == y,
+            })
+    };
+    let mut groups: Vec<LambdaGroup> = Vec::new();
+    for series in scan.lambdas.iter().filter(|s| s.key.model == model) {
+        let short = screen_label(
+            series
+                .name
+                .trim_start_matches("λ ")
+                .trim_start_matches(model)
+                .trim(),
+        );
+        match groups.iter_mut().find(|g| same(&g.values, &series.values)) {
+            Some(group) => {
+                group.name.push_str(", ");
+                group.name.push_str(&short);
+            }
+            None => groups.push(LambdaGroup {
+                name: short,
+                values: series.values.clone(),
+            }),
+        }
+    }
+    groups
+}
+
+/// The top of the λ plot; pure p orbitals (λ = ∞) are marked there.
+const LAMBDA_TOP: f64 = 8.0;
+
+/// Sets the document's geometry to scan point `index` (recorded as one undoable edit by
+/// the frame's history diff).
+pub fn take_point_geometry(state: &mut AppState, scan: &Scan, index: usize) {
+    let Some(point) = scan.points.get(index) else {
+        return;
+    };
+    if point.geometry.len() != state.project.molecule.len() {
+        state.status = "The scan was made on a different molecule".into();
+        return;
+    }
+    for (atom, placed) in state
+        .project
+        .molecule
+        .atoms
+        .iter_mut()
+        .zip(&point.geometry.atoms)
+    {
+        atom.position = placed.position;
+    }
+    state.status = format!(
+        "Geometry of scan point {} ({:.3} {})",
+        index + 1,
+        point.value,
+        scan.request.coordinate.unit()
+    );
+}
+
+/// The curve's name, and its label at the last point when the symmetry there renames it
+/// (ammonia's 3a1 becomes 1a2″ when planar).
+fn end_label(curve: &diptych::scan::Curve) -> String {
+    match curve.labels.last().cloned().flatten() {
+        Some(last) if last != curve.label => screen_label(&format!("{} -> {last}", curve.label)),
+        _ => screen_label(&curve.label),
+    }
+}
+
+/// Unbroken runs of (coordinate, value) where the value exists.
+fn segments(scan: &Scan, values: &[Option<f64>]) -> Vec<Vec<[f64; 2]>> {
+    let mut runs = Vec::new();
+    let mut current = Vec::new();
+    for (point, value) in scan.points.iter().zip(values) {
+        match value {
+            Some(y) if y.is_finite() => current.push([point.value, *y]),
+            _ => {
+                if !current.is_empty() {
+                    runs.push(std::mem::take(&mut current));
+                }
+            }
+        }
+    }
+    if !current.is_empty() {
+        runs.push(current);
+    }
+    runs
+}
+
+/// From just below the lowest level to 6 eV above the highest occupied one along the
+/// scan (the empty levels far above say little in a Walsh argument).
+fn energy_window(scan: &Scan) -> (f64, f64) {
+    let levels = scan
+        .curves
+        .iter()
+        .flat_map(|curve| curve.energies.iter().zip(&curve.occupancies));
+    let mut low = f64::INFINITY;
+    let mut homo_high = f64::NEG_INFINITY;
+    for (energy, occupancy) in levels {
+        let Some(energy) = energy else {
+            continue;
+        };
+        low = low.min(*energy);
+        if occupancy.is_some_and(|o| o > 1e-6) {
+            homo_high = homo_high.max(*energy);
+        }
+    }
+    if !low.is_finite() || !homo_high.is_finite() {
+        return (-30.0, 5.0);
+    }
+    (low - 1.0, homo_high + 6.0)
+}
