@@ -2,6 +2,7 @@
 //! writes a file lives in its own module here.
 
 mod export;
+mod map;
 
 use std::io::Write;
 use std::path::{Path, PathBuf};
@@ -83,6 +84,8 @@ enum Command {
         #[arg(long)]
         force: bool,
     },
+    /// Write the map of one orbital on a plane (contours, atoms, bonds) as an SVG file.
+    Map(map::MapArgs),
 }
 
 /// The hybrid models of DESIGN §4.4.
@@ -172,6 +175,7 @@ pub fn main() -> ExitCode {
             };
             export::export(&file, &output, charge, &request)
         }
+        Some(Command::Map(args)) => map::map(&args),
         None => open_window(cli.file, cli.screenshot),
     }
 }

@@ -75,7 +75,7 @@ const INK: [u8; 3] = [34, 34, 34];
 const FAINT: [u8; 3] = [130, 130, 130];
 
 /// Label text as `tspan` runs with baseline shifts that are undone after each run.
-fn label_markup(label: &str, font_size: f64) -> String {
+pub(crate) fn label_markup(label: &str, font_size: f64) -> String {
     let mut out = String::new();
     let shift = font_size * 0.3;
     for (text, script) in label_runs(label) {
