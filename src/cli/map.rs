@@ -126,7 +126,10 @@ pub(super) fn map(args: &MapArgs) -> ExitCode {
         .and_then(|e| e.to_str())
         .map(str::to_ascii_lowercase);
     if extension.as_deref() != Some("svg") {
-        return bad_input(format!("the output '{}' must end in .svg", output.display()));
+        return bad_input(format!(
+            "the output '{}' must end in .svg",
+            output.display()
+        ));
     }
     if output.exists() && !args.force {
         return bad_input(format!(

@@ -26,6 +26,8 @@ pub mod svg;
 use thiserror::Error;
 
 use crate::analysis::Analysis;
+use crate::chem::molecule::Molecule;
+use crate::eht::basis::Basis;
 
 pub use contour::{ContourLine, contour_lines};
 pub use grid::{Grid, GridSpec};
@@ -64,7 +66,10 @@ pub enum MapError {
     AtomOutOfRange { atom: usize, atoms: usize },
     #[error("atom {atom} is given twice; a plane needs distinct atoms")]
     RepeatedAtom { atom: usize },
-    #[error("atoms {} are collinear (or coincide) and do not define a plane", format_atoms(atoms))]
+    #[error(
+        "atoms {} are collinear (or coincide) and do not define a plane",
+        format_atoms(atoms)
+    )]
     CollinearAtoms { atoms: [usize; 3] },
     #[error("atoms {a} and {b} coincide; they define no bond direction")]
     CoincidentAtoms { a: usize, b: usize },
@@ -166,11 +171,24 @@ pub fn compute_map(
     plane: &Plane,
     options: &MapOptions,
 ) -> Result<OrbitalMap, MapError> {
-    let levels = options.validated_levels()?;
+    options.validated_levels()?;
     let orbital = resolve(analysis, reference)?;
     let eht = analysis.eht.as_ref().ok_or(MapError::NoOrbitals)?;
-    let evaluator = OrbitalEvaluator::new(&eht.basis, &orbital.coefficients);
-    let atoms = project_atoms(&analysis.molecule, plane);
+    map_orbital(&analysis.molecule, &eht.basis, orbital, plane, options)
+}
+
+/// Computes the map of any orbital given by its AO coefficients in `basis` (the basis of
+/// `molecule`), e.g. a single basis function.
+pub fn map_orbital(
+    molecule: &Molecule,
+    basis: &Basis,
+    orbital: ResolvedOrbital,
+    plane: &Plane,
+    options: &MapOptions,
+) -> Result<OrbitalMap, MapError> {
+    let levels = options.validated_levels()?;
+    let evaluator = OrbitalEvaluator::new(basis, &orbital.coefficients);
+    let atoms = project_atoms(molecule, plane);
     let positions: Vec<(f64, f64)> = atoms.iter().map(|a| (a.x, a.y)).collect();
     let spec = GridSpec::covering(&positions, options.margin, options.points);
     let grid = Grid::evaluate(&evaluator, plane, &spec);
@@ -197,6 +215,6 @@ pub fn compute_map(
         contours,
         nodal,
         atoms,
-        bonds: bond_pairs(&analysis.molecule),
+        bonds: bond_pairs(molecule),
     })
 }

@@ -32,7 +32,8 @@ pub enum OrbitalRef {
 /// The orbital resolved: AO coefficients and what to call it.
 #[derive(Clone, Debug, PartialEq)]
 pub struct ResolvedOrbital {
-    pub reference: OrbitalRef,
+    /// Where it came from; None for an orbital given directly by coefficients.
+    pub reference: Option<OrbitalRef>,
     /// AO coefficients in basis order (length = basis size).
     pub coefficients: Vec<f64>,
     /// Name for titles ("3a1", "n(N)", "N0 sp^2.03 → lone pair").
@@ -65,7 +66,7 @@ pub fn resolve(analysis: &Analysis, reference: OrbitalRef) -> Result<ResolvedOrb
                 .map(|(atom, _)| atom)
                 .collect();
             Ok(ResolvedOrbital {
-                reference,
+                reference: Some(reference),
                 coefficients,
                 label: summary
                     .label
@@ -90,7 +91,7 @@ pub fn resolve(analysis: &Analysis, reference: OrbitalRef) -> Result<ResolvedOrb
                 });
             }
             Ok(ResolvedOrbital {
-                reference,
+                reference: Some(reference),
                 coefficients: summary.coefficients.clone(),
                 label: summary.label.clone(),
                 energy_ev: Some(summary.energy_ev),
@@ -106,13 +107,8 @@ pub fn resolve(analysis: &Analysis, reference: OrbitalRef) -> Result<ResolvedOrb
                     index,
                     count: analysis.hybrid_entries.len(),
                 })?;
-            let coefficients = hybrid_coefficients(
-                analysis,
-                entry.center,
-                entry.lambda,
-                entry.direction,
-                size,
-            )?;
+            let coefficients =
+                hybrid_coefficients(analysis, entry.center, entry.lambda, entry.direction, size)?;
             let symbol = analysis
                 .molecule
                 .atoms
@@ -126,7 +122,7 @@ pub fn resolve(analysis: &Analysis, reference: OrbitalRef) -> Result<ResolvedOrb
             let mut atoms = vec![entry.center];
             atoms.extend(entry.partner);
             Ok(ResolvedOrbital {
-                reference,
+                reference: Some(reference),
                 coefficients,
                 label: format!(
                     "{symbol}{} {} ({target})",
@@ -176,7 +172,10 @@ fn hybrid_coefficients(
         (None, true) => (0.0, 1.0),
         (Some(lambda), true) => {
             let lambda = lambda.max(0.0);
-            ((1.0 / (1.0 + lambda)).sqrt(), (lambda / (1.0 + lambda)).sqrt())
+            (
+                (1.0 / (1.0 + lambda)).sqrt(),
+                (lambda / (1.0 + lambda)).sqrt(),
+            )
         }
     };
     let mut coefficients = vec![0.0; size];

@@ -17,7 +17,10 @@ const COLLINEAR_SINE: f64 = 1e-3;
 #[derive(Clone, Debug, PartialEq, Eq)]
 pub enum PlaneKind {
     ThroughAtoms([usize; 3]),
-    NormalToBond { atom: usize, partner: usize },
+    NormalToBond {
+        atom: usize,
+        partner: usize,
+    },
     /// Any other plane (given by points and axes).
     Free,
 }
@@ -89,7 +92,10 @@ impl Plane {
         let b = atom_position(molecule, partner)?;
         let axis = b - a;
         if axis.norm() < 1e-6 {
-            return Err(MapError::CoincidentAtoms { a: atom, b: partner });
+            return Err(MapError::CoincidentAtoms {
+                a: atom,
+                b: partner,
+            });
         }
         let axis = axis.normalize();
         let u = any_perpendicular(&axis);

@@ -292,22 +292,28 @@ fn write_footer(svg: &mut String, map: &OrbitalMap, frame: &Frame, font_size: f6
         number(length)
     );
     let levels: Vec<String> = map.levels.iter().map(|l| format!("±{l}")).collect();
+    let shift = 0.3 * font_size;
+    let unit = format!(
+        "bohr<tspan dy=\"{}\" font-size=\"{}\">−3/2</tspan><tspan dy=\"{}\"> </tspan>",
+        number(-shift),
+        number(0.6 * font_size),
+        number(shift)
+    );
     let caption = if map.vanishes() {
-        "the orbital vanishes on this plane (a nodal plane)".to_string()
+        escape_xml("the orbital vanishes on this plane (a nodal plane)")
     } else {
         format!(
-            "contours {} bohr⁻³ᐟ²; max |ψ| {:.3} bohr⁻³ᐟ²",
-            levels.join(", "),
+            "contours {} {unit}; max |ψ| {:.3} {unit}",
+            escape_xml(&levels.join(", ")),
             map.grid.max_abs()
         )
     };
     let _ = writeln!(
         svg,
-        "<text x=\"{}\" y=\"{}\" font-size=\"{}\" fill=\"{INK}\">{}</text>",
+        "<text x=\"{}\" y=\"{}\" font-size=\"{}\" fill=\"{INK}\" xml:space=\"preserve\">{caption}</text>",
         number(x),
         number(y + 1.7 * font_size),
         number(0.8 * font_size),
-        escape_xml(&caption)
     );
     let _ = writeln!(
         svg,
