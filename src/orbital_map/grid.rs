@@ -2,8 +2,11 @@
 //! atoms' projections onto the plane plus a margin, made square so that grid cells are
 //! square. Rows are filled on worker threads (std::thread::scope), one band per thread.
 
+use nalgebra::{Matrix3, Vector3};
+
 use super::plane::Plane;
 use super::sto::OrbitalEvaluator;
+use crate::eht::overlap::BOHR_IN_ANGSTROM;
 
 /// Square window of plane coordinates (Å) with n points a side.
 #[derive(Clone, Debug, PartialEq)]
@@ -79,6 +82,9 @@ impl Grid {
     /// Evaluates `orbital` at every point of `spec` on `plane`.
     pub fn evaluate(orbital: &OrbitalEvaluator, plane: &Plane, spec: &GridSpec) -> Grid {
         let n = spec.n;
+        // In the plane's own frame a grid point is (x, y, 0): no 3D point is built per value.
+        let axes = Matrix3::from_columns(&[plane.u, plane.v, plane.normal()]);
+        let orbital = orbital.in_frame(&(plane.origin / BOHR_IN_ANGSTROM), &axes);
         let mut values = vec![0.0; n * n];
         let threads = std::thread::available_parallelism()
             .map(|t| t.get())
@@ -91,7 +97,8 @@ impl Grid {
                 let j = first_row + offset;
                 for (i, slot) in row.iter_mut().enumerate() {
                     let (x, y) = spec.coordinates(i, j);
-                    *slot = orbital.value_at(&plane.point(x, y));
+                    let point = Vector3::new(x, y, 0.0) / BOHR_IN_ANGSTROM;
+                    *slot = orbital.value_at_bohr(&point);
                 }
             }
         };

@@ -11,7 +11,7 @@
 //! each shell's polynomial once ([`OrbitalEvaluator`]); shells whose coefficients are
 //! all zero are dropped, and an atom is skipped where ζ_min r exceeds [`DECAY_CUTOFF`].
 
-use nalgebra::Vector3;
+use nalgebra::{Matrix3, Vector3};
 
 use crate::eht::basis::Basis;
 use crate::eht::overlap::{BOHR_IN_ANGSTROM, radial_normalization};
@@ -79,25 +79,71 @@ pub fn basis_values_at(basis: &Basis, point: &Vector3<f64>, out: &mut [f64]) {
     }
 }
 
-/// One shell of an orbital: its radial data and the orbital's coefficients folded into
-/// the harmonic constants.
+/// The angular part of all shells of one atom that share an exponent and a power of r:
+/// constant (s) + linear (p) + quadratic (d) forms in the displacement d from the centre,
+/// with normalization, harmonic constants and AO coefficients folded in.
 #[derive(Clone, Debug)]
-struct ShellTerm {
+struct AngularForm {
     /// Power of r left after the solid harmonic: n − 1 − l.
     power: i32,
-    zeta: f64,
-    l: u8,
-    /// N × (harmonic constant) × (AO coefficient) per function of the shell.
-    weights: [f64; 5],
+    constant: f64,
+    linear: Vector3<f64>,
+    quadratic: Matrix3<f64>,
+    has_quadratic: bool,
 }
 
-/// The shells of one atom that carry part of the orbital.
+impl AngularForm {
+    fn value(&self, d: &Vector3<f64>, r: f64) -> f64 {
+        let mut angular = self.constant + self.linear.dot(d);
+        if self.has_quadratic {
+            angular += d.dot(&(self.quadratic * d));
+        }
+        match self.power {
+            0 => angular,
+            1 => r * angular,
+            p => r.powi(p) * angular,
+        }
+    }
+}
+
+/// The shells of one atom with one exponent: e^(−ζr) is computed once for them all.
+#[derive(Clone, Debug)]
+struct ExponentGroup {
+    zeta: f64,
+    forms: Vec<AngularForm>,
+}
+
+/// The part of an orbital on one atom.
 #[derive(Clone, Debug)]
 struct AtomTerms {
     centre: Vector3<f64>,
     /// Distance (bohr) beyond which every shell of the atom is negligible.
     cutoff: f64,
-    shells: Vec<ShellTerm>,
+    groups: Vec<ExponentGroup>,
+}
+
+/// Adds `weights` (one per real function of a shell of angular momentum l, already
+/// multiplied by N and the harmonic constant) to a form.
+fn add_shell(form: &mut AngularForm, l: u8, weights: &[f64; 5]) {
+    match l {
+        0 => form.constant += weights[0],
+        1 => form.linear += Vector3::new(weights[0], weights[1], weights[2]),
+        _ => {
+            // xy, yz, 2z² − x² − y², xz, x² − y² as symmetric matrices.
+            let m = &mut form.quadratic;
+            let [xy, yz, z2, xz, x2y2] = *weights;
+            m[(0, 1)] += 0.5 * xy;
+            m[(1, 0)] += 0.5 * xy;
+            m[(1, 2)] += 0.5 * yz;
+            m[(2, 1)] += 0.5 * yz;
+            m[(0, 2)] += 0.5 * xz;
+            m[(2, 0)] += 0.5 * xz;
+            m[(0, 0)] += x2y2 - z2;
+            m[(1, 1)] += -x2y2 - z2;
+            m[(2, 2)] += 2.0 * z2;
+            form.has_quadratic = true;
+        }
+    }
 }
 
 /// Evaluates one orbital ψ = Σ c_μ χ_μ at points, with the coefficients folded in once.
@@ -123,32 +169,83 @@ impl OrbitalEvaluator {
             if weights.iter().all(|&w| w == 0.0) {
                 continue;
             }
-            let term = ShellTerm {
-                power: i32::from(shell.n) - 1 - i32::from(shell.l),
-                zeta: shell.zeta,
-                l: shell.l,
-                weights,
-            };
-            let cutoff = DECAY_CUTOFF / shell.zeta;
-            match atoms.iter_mut().find(|a| a.centre == shell.centre) {
-                Some(atom) => {
-                    atom.cutoff = atom.cutoff.max(cutoff);
-                    atom.shells.push(term);
+            let power = i32::from(shell.n) - 1 - i32::from(shell.l);
+            let atom_index = match atoms.iter().position(|a| a.centre == shell.centre) {
+                Some(index) => index,
+                None => {
+                    atoms.push(AtomTerms {
+                        centre: shell.centre,
+                        cutoff: 0.0,
+                        groups: Vec::new(),
+                    });
+                    atoms.len() - 1
                 }
-                None => atoms.push(AtomTerms {
-                    centre: shell.centre,
-                    cutoff,
-                    shells: vec![term],
-                }),
-            }
+            };
+            let atom = &mut atoms[atom_index];
+            atom.cutoff = atom.cutoff.max(DECAY_CUTOFF / shell.zeta);
+            let group_index = match atom.groups.iter().position(|g| g.zeta == shell.zeta) {
+                Some(index) => index,
+                None => {
+                    atom.groups.push(ExponentGroup {
+                        zeta: shell.zeta,
+                        forms: Vec::new(),
+                    });
+                    atom.groups.len() - 1
+                }
+            };
+            let group = &mut atom.groups[group_index];
+            let form_index = match group.forms.iter().position(|f| f.power == power) {
+                Some(index) => index,
+                None => {
+                    group.forms.push(AngularForm {
+                        power,
+                        constant: 0.0,
+                        linear: Vector3::zeros(),
+                        quadratic: Matrix3::zeros(),
+                        has_quadratic: false,
+                    });
+                    group.forms.len() - 1
+                }
+            };
+            add_shell(&mut group.forms[form_index], shell.l, &weights);
         }
+        OrbitalEvaluator { atoms }
+    }
+
+    /// The same orbital in the frame with origin `origin` (bohr) and orthonormal axes the
+    /// columns of `axes`: the new evaluator takes points as coordinates along those axes.
+    pub fn in_frame(&self, origin: &Vector3<f64>, axes: &Matrix3<f64>) -> OrbitalEvaluator {
+        let transpose = axes.transpose();
+        let atoms = self
+            .atoms
+            .iter()
+            .map(|atom| AtomTerms {
+                centre: transpose * (atom.centre - origin),
+                cutoff: atom.cutoff,
+                groups: atom
+                    .groups
+                    .iter()
+                    .map(|group| ExponentGroup {
+                        zeta: group.zeta,
+                        forms: group
+                            .forms
+                            .iter()
+                            .map(|form| AngularForm {
+                                linear: transpose * form.linear,
+                                quadratic: transpose * form.quadratic * axes,
+                                ..form.clone()
+                            })
+                            .collect(),
+                    })
+                    .collect(),
+            })
+            .collect();
         OrbitalEvaluator { atoms }
     }
 
     /// ψ at `point` given in bohr.
     pub fn value_at_bohr(&self, point: &Vector3<f64>) -> f64 {
         let mut sum = 0.0;
-        let mut harmonics = [0.0; 5];
         for atom in &self.atoms {
             let d = point - atom.centre;
             let r2 = d.norm_squared();
@@ -156,16 +253,9 @@ impl OrbitalEvaluator {
                 continue;
             }
             let r = r2.sqrt();
-            for shell in &atom.shells {
-                let radial = r.powi(shell.power) * (-shell.zeta * r).exp();
-                solid_harmonics(shell.l, &d, &mut harmonics);
-                let angular: f64 = shell
-                    .weights
-                    .iter()
-                    .zip(&harmonics)
-                    .take(2 * shell.l as usize + 1)
-                    .map(|(w, h)| w * h)
-                    .sum();
+            for group in &atom.groups {
+                let radial = (-group.zeta * r).exp();
+                let angular: f64 = group.forms.iter().map(|form| form.value(&d, r)).sum();
                 sum += radial * angular;
             }
         }
@@ -180,5 +270,111 @@ impl OrbitalEvaluator {
     /// True when the orbital has no non-zero coefficient.
     pub fn is_zero(&self) -> bool {
         self.atoms.is_empty()
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::chem::ao::{AngularKind, AtomicOrbital};
+    use crate::eht::basis::BasisShell;
+
+    /// Two atoms with s, p and d shells (d is only reachable through parameter overrides).
+    fn spd_basis() -> Basis {
+        let mut basis = Basis {
+            orbitals: Vec::new(),
+            exponents: Vec::new(),
+            vsip: Vec::new(),
+            shells: Vec::new(),
+            atom_ranges: Vec::new(),
+        };
+        let centres = [Vector3::new(0.1, -0.2, 0.3), Vector3::new(1.9, 0.7, -1.1)];
+        for (atom, centre) in centres.iter().enumerate() {
+            let start = basis.orbitals.len();
+            for (n, l, zeta) in [(3u8, 0u8, 1.8), (3, 1, 1.6), (3, 2, 2.1)] {
+                basis.shells.push(BasisShell {
+                    atom,
+                    n,
+                    l,
+                    zeta,
+                    vsip: -10.0,
+                    centre: *centre,
+                    first: basis.orbitals.len(),
+                });
+                for &kind in AngularKind::shell(l) {
+                    basis.orbitals.push(AtomicOrbital { atom, n, kind });
+                    basis.exponents.push(zeta);
+                    basis.vsip.push(-10.0);
+                }
+            }
+            basis.atom_ranges.push(start..basis.orbitals.len());
+        }
+        basis
+    }
+
+    #[test]
+    fn folded_evaluator_equals_the_sum_over_basis_functions() {
+        // ψ = Σ c_μ χ_μ (definition of an LCAO orbital): the folded forms, also after a
+        // change of frame, must give the same number as summing the functions one by one.
+        let basis = spd_basis();
+        let coefficients: Vec<f64> = (0..basis.len())
+            .map(|k| ((k * 37 % 11) as f64 - 5.0) / 7.0)
+            .collect();
+        let evaluator = OrbitalEvaluator::new(&basis, &coefficients);
+        let axes = nalgebra::Rotation3::from_euler_angles(0.3, -1.1, 2.0).into_inner();
+        let origin = Vector3::new(0.4, 0.2, -0.9);
+        let framed = evaluator.in_frame(&origin, &axes);
+        let mut values = vec![0.0; basis.len()];
+        for point in [
+            Vector3::new(0.5, 0.5, 0.5),
+            Vector3::new(-1.0, 2.0, 0.3),
+            Vector3::new(1.9, 0.7, -1.1),
+            Vector3::new(3.0, -2.5, 1.0),
+        ] {
+            basis_values_at(&basis, &point, &mut values);
+            let expected: f64 = values.iter().zip(&coefficients).map(|(v, c)| v * c).sum();
+            let direct = evaluator.value_at_bohr(&point);
+            let in_frame = framed.value_at_bohr(&(axes.transpose() * (point - origin)));
+            assert!((direct - expected).abs() < 1e-12, "{direct} vs {expected}");
+            assert!(
+                (in_frame - expected).abs() < 1e-12,
+                "{in_frame} vs {expected}"
+            );
+        }
+    }
+
+    #[test]
+    fn d_functions_are_orthonormal() {
+        // The real d harmonics are orthonormal on the sphere (e.g. Szabo and Ostlund): with
+        // a normalized radial factor, ∫ χ_i χ_j dV = δ_ij. Midpoint sum on a 3D grid.
+        let basis = spd_basis();
+        let shell = &basis.shells[2];
+        let (half, h) = (9.0, 0.15);
+        let n = (2.0 * half / h) as usize;
+        let mut values = vec![0.0; basis.len()];
+        let mut sums = [[0.0; 5]; 5];
+        for a in 0..n {
+            for b in 0..n {
+                for c in 0..n {
+                    let offset = Vector3::new(a as f64, b as f64, c as f64) * h
+                        - Vector3::repeat(half - 0.5 * h);
+                    basis_values_at(&basis, &(shell.centre + offset), &mut values);
+                    for i in 0..5 {
+                        for j in 0..5 {
+                            sums[i][j] += values[shell.first + i] * values[shell.first + j];
+                        }
+                    }
+                }
+            }
+        }
+        for (i, row) in sums.iter().enumerate() {
+            for (j, sum) in row.iter().enumerate() {
+                let expected = if i == j { 1.0 } else { 0.0 };
+                assert!(
+                    (sum * h * h * h - expected).abs() < 2e-3,
+                    "({i}, {j}): {sum}"
+                );
+            }
+        }
     }
 }
