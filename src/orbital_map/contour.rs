@@ -177,3 +177,31 @@ pub fn contour_lines(grid: &Grid, level: f64) -> Vec<ContourLine> {
     }
     lines
 }
+
+/// The contour lines of `grid` at every level of `levels`, in that order; the levels are
+/// shared among worker threads (std::thread::scope), the result does not depend on how.
+pub fn contour_set(grid: &Grid, levels: &[f64]) -> Vec<ContourLine> {
+    let threads = std::thread::available_parallelism()
+        .map(|t| t.get())
+        .unwrap_or(1)
+        .min(levels.len())
+        .max(1);
+    if threads == 1 || grid.spec.n < 64 {
+        return levels
+            .iter()
+            .flat_map(|&level| contour_lines(grid, level))
+            .collect();
+    }
+    let mut per_level: Vec<Vec<ContourLine>> = vec![Vec::new(); levels.len()];
+    let chunk = levels.len().div_ceil(threads);
+    std::thread::scope(|scope| {
+        for (slots, chunk_levels) in per_level.chunks_mut(chunk).zip(levels.chunks(chunk)) {
+            scope.spawn(move || {
+                for (slot, &level) in slots.iter_mut().zip(chunk_levels) {
+                    *slot = contour_lines(grid, level);
+                }
+            });
+        }
+    });
+    per_level.into_iter().flatten().collect()
+}

@@ -29,7 +29,7 @@ use crate::analysis::Analysis;
 use crate::chem::molecule::Molecule;
 use crate::eht::basis::Basis;
 
-pub use contour::{ContourLine, contour_lines};
+pub use contour::{ContourLine, contour_lines, contour_set};
 pub use grid::{Grid, GridSpec};
 pub use orbital::{OrbitalRef, ResolvedOrbital, find_orbital, resolve};
 pub use plane::{Plane, PlaneKind};
@@ -193,20 +193,30 @@ pub fn map_orbital(
     let spec = GridSpec::covering(&positions, options.margin, options.points);
     let grid = Grid::evaluate(&evaluator, plane, &spec);
     let max_abs = grid.max_abs();
-    let mut contours = Vec::new();
+    // +level and −level for each magnitude, and the nodal line last.
+    let mut wanted: Vec<f64> = Vec::new();
+    let mut nodal_level = None;
     if max_abs >= VANISHING {
         for &level in &levels {
-            contours.extend(contour_lines(&grid, level));
-            contours.extend(contour_lines(&grid, -level));
+            wanted.push(level);
+            wanted.push(-level);
+        }
+        if options.nodal_line {
+            // Just above zero, so that grid points lying exactly on a symmetry node count
+            // as one side and the line does not flicker through rounding noise.
+            let level = max_abs * 1e-9;
+            wanted.push(level);
+            nodal_level = Some(level);
         }
     }
-    let nodal = if options.nodal_line && max_abs >= VANISHING {
-        // Just above zero, so that grid points lying exactly on a symmetry node count as
-        // one side and the line does not flicker through rounding noise.
-        contour_lines(&grid, max_abs * 1e-9)
-    } else {
-        Vec::new()
+    let lines = contour_set(&grid, &wanted);
+    // The nodal lines are the last ones (contour_set keeps the order of the levels).
+    let nodal_count = match nodal_level {
+        Some(level) => lines.iter().rev().take_while(|l| l.level == level).count(),
+        None => 0,
     };
+    let mut contours = lines;
+    let nodal = contours.split_off(contours.len() - nodal_count);
     Ok(OrbitalMap {
         orbital,
         plane: plane.clone(),
