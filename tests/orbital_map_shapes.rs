@@ -338,3 +338,36 @@ fn contour_lines_are_closed_or_end_on_the_border() {
         }
     }
 }
+
+#[test]
+fn default_plane_shows_pi_orbitals_from_the_side() {
+    // Ethylene's HOMO is the C=C π orbital (1b3u), odd under reflection in the molecular
+    // plane (e.g. Albright, Burdett and Whangbo, from memory): the default plane must not
+    // be the molecular plane for it, while the σ(C–C) bond is shown in that plane.
+    let text = std::fs::read_to_string(
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("demo_molecules/ethylene.xyz"),
+    )
+    .expect("demo ethylene");
+    let molecule = diptych::chem::io::xyz::parse_xyz(&text, "ethylene")
+        .expect("valid XYZ")
+        .molecule;
+    let analysis = Analysis::run(&molecule, &Settings::default()).expect("analysis");
+    let homo = analysis.eht.as_ref().and_then(|e| e.homo()).expect("HOMO");
+    let options = MapOptions {
+        points: 48,
+        ..MapOptions::default()
+    };
+    let pi_plane =
+        diptych::orbital_map::default_plane(&analysis, OrbitalRef::Canonical(homo)).expect("plane");
+    assert!(matches!(pi_plane.kind, PlaneKind::PerpendicularTo(_)));
+    let pi_map =
+        compute_map(&analysis, OrbitalRef::Canonical(homo), &pi_plane, &options).expect("map");
+    assert!(!pi_map.vanishes());
+    assert!(pi_map.contours.iter().any(|l| l.level < 0.0));
+    let sigma = diptych::orbital_map::find_orbital(&analysis, "σ(C–C)").expect("σ(C–C)");
+    let sigma_plane = diptych::orbital_map::default_plane(&analysis, sigma).expect("plane");
+    assert!(matches!(sigma_plane.kind, PlaneKind::ThroughAtoms(_)));
+    for atom in &molecule.atoms {
+        assert!(sigma_plane.project(&atom.position).2.abs() < 1e-9);
+    }
+}

@@ -158,10 +158,39 @@ impl OrbitalMap {
 /// Below this |ψ| (bohr^(−3/2)) everywhere, the orbital is taken to vanish on the plane.
 const VANISHING: f64 = 1e-8;
 
-/// The default plane for mapping `reference`: see [`Plane::default_for`].
+/// The default plane for mapping `reference`: the plane of [`Plane::default_for`] through
+/// the orbital's atoms, or the plane through its first two atoms perpendicular to it,
+/// whichever holds more of the orbital (Σψ² on a coarse grid), so that a π orbital is not
+/// shown on its own nodal plane.
 pub fn default_plane(analysis: &Analysis, reference: OrbitalRef) -> Result<Plane, MapError> {
     let orbital = resolve(analysis, reference)?;
-    Plane::default_for(&analysis.molecule, &orbital.atoms).ok_or(MapError::NoOrbitals)
+    let eht = analysis.eht.as_ref().ok_or(MapError::NoOrbitals)?;
+    let first =
+        Plane::default_for(&analysis.molecule, &orbital.atoms).ok_or(MapError::NoOrbitals)?;
+    let second = match &first.kind {
+        PlaneKind::ThroughAtoms(atoms) => first.turned_about_u(PlaneKind::PerpendicularTo(*atoms)),
+        _ => first.turned_about_u(PlaneKind::Free),
+    };
+    let evaluator = OrbitalEvaluator::new(&eht.basis, &orbital.coefficients);
+    let weight = |plane: &Plane| {
+        let positions: Vec<(f64, f64)> = project_atoms(&analysis.molecule, plane)
+            .iter()
+            .map(|a| (a.x, a.y))
+            .collect();
+        let spec = GridSpec::covering(&positions, 2.0, 32);
+        let sum: f64 = Grid::evaluate(&evaluator, plane, &spec)
+            .values
+            .iter()
+            .map(|v| v * v)
+            .sum();
+        sum * spec.step * spec.step
+    };
+    // The second plane must clearly win: a tie keeps the plane through three atoms.
+    if weight(&second) > 1.05 * weight(&first) {
+        Ok(second)
+    } else {
+        Ok(first)
+    }
 }
 
 /// Computes the map of `reference` on `plane`.

@@ -21,6 +21,8 @@ pub enum PlaneKind {
         atom: usize,
         partner: usize,
     },
+    /// Through atoms i and j, perpendicular to the plane of i, j, k (shows π orbitals).
+    PerpendicularTo([usize; 3]),
     /// Any other plane (given by points and axes).
     Free,
 }
@@ -77,6 +79,23 @@ impl Plane {
         let mut plane = Plane::from_points(a, b, c).ok_or(MapError::CollinearAtoms { atoms })?;
         plane.kind = PlaneKind::ThroughAtoms(atoms);
         Ok(plane)
+    }
+
+    /// The plane through atoms i and j perpendicular to the plane of i, j, k: it contains
+    /// the i–j axis and the normal of i, j, k, so it cuts through π lobes above and below.
+    pub fn perpendicular_to(molecule: &Molecule, atoms: [usize; 3]) -> Result<Plane, MapError> {
+        let plane = Plane::through_atoms(molecule, atoms)?;
+        Ok(plane.turned_about_u(PlaneKind::PerpendicularTo(atoms)))
+    }
+
+    /// This plane turned by 90° about its u axis (same origin and u; v becomes the normal).
+    pub fn turned_about_u(&self, kind: PlaneKind) -> Plane {
+        Plane {
+            origin: self.origin,
+            u: self.u,
+            v: self.normal(),
+            kind,
+        }
     }
 
     /// The plane through `atom` normal to the bond atom → `partner`.
@@ -206,6 +225,9 @@ impl Plane {
             PlaneKind::ThroughAtoms([i, j, k]) => format!("plane through atoms {i}, {j}, {k}"),
             PlaneKind::NormalToBond { atom, partner } => {
                 format!("plane through atom {atom} normal to bond {atom}–{partner}")
+            }
+            PlaneKind::PerpendicularTo([i, j, k]) => {
+                format!("plane through atoms {i}, {j}, perpendicular to the plane of {i}, {j}, {k}")
             }
             PlaneKind::Free => "plane".into(),
         }
