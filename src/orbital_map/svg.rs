@@ -294,7 +294,7 @@ fn write_footer(svg: &mut String, map: &OrbitalMap, frame: &Frame, font_size: f6
     let levels: Vec<String> = map.levels.iter().map(|l| format!("±{l}")).collect();
     let shift = 0.3 * font_size;
     let unit = format!(
-        "bohr<tspan dy=\"{}\" font-size=\"{}\">−3/2</tspan><tspan dy=\"{}\"> </tspan>",
+        "bohr<tspan dy=\"{}\" font-size=\"{}\">−3/2</tspan><tspan dy=\"{}\"></tspan>",
         number(-shift),
         number(0.6 * font_size),
         number(shift)
