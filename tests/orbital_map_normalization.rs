@@ -237,3 +237,27 @@ fn point_values_follow_the_slater_formula() {
         assert!((values[p_shell.first + 2] - expected_pz).abs() < 1e-12);
     }
 }
+
+#[test]
+fn localized_orbitals_and_hybrids_integrate_to_one() {
+    // Localized orbitals carry S-normalized AO coefficients and a hybrid is built as
+    // (s + √λ p)/√(1+λ) from orthonormal one-centre functions (Coulson, Valence, 1952):
+    // both densities integrate to 1.
+    use diptych::orbital_map::{OrbitalRef, resolve};
+    let analysis = Analysis::run(&ammonia(), &Settings::default()).expect("analysis");
+    let eht = analysis.eht.as_ref().expect("EHT result");
+    for reference in [
+        OrbitalRef::Localized(0),
+        OrbitalRef::Hybrid(0),
+        OrbitalRef::Hybrid(analysis.hybrid_entries.len() - 1),
+    ] {
+        let orbital = resolve(&analysis, reference).expect("orbital");
+        let evaluator = OrbitalEvaluator::new(&eht.basis, &orbital.coefficients);
+        let integral = integrate_by_planes(&evaluator, Vector3::zeros(), 12.0, 0.12);
+        assert!(
+            (integral - 1.0).abs() < 0.01,
+            "{reference:?} ({}): ∫ψ² = {integral}",
+            orbital.label
+        );
+    }
+}
