@@ -2,7 +2,7 @@
 //! atoms' projections onto the plane plus a margin, made square so that grid cells are
 //! square. Rows are filled on worker threads (std::thread::scope), one band per thread.
 
-use nalgebra::{Matrix3, Vector3};
+use nalgebra::Matrix3;
 
 use super::plane::Plane;
 use super::sto::OrbitalEvaluator;
@@ -94,12 +94,14 @@ impl Grid {
         let rows_per_band = n.div_ceil(threads);
         let fill = |first_row: usize, band: &mut [f64]| {
             for (offset, row) in band.chunks_mut(n).enumerate() {
-                let j = first_row + offset;
-                for (i, slot) in row.iter_mut().enumerate() {
-                    let (x, y) = spec.coordinates(i, j);
-                    let point = Vector3::new(x, y, 0.0) / BOHR_IN_ANGSTROM;
-                    *slot = orbital.value_at_bohr(&point);
-                }
+                let (x0, y) = spec.coordinates(0, first_row + offset);
+                orbital.add_line_bohr(
+                    x0 / BOHR_IN_ANGSTROM,
+                    spec.step / BOHR_IN_ANGSTROM,
+                    y / BOHR_IN_ANGSTROM,
+                    0.0,
+                    row,
+                );
             }
         };
         if threads == 1 {

@@ -7,9 +7,12 @@
 //! to 1 in bohr³.
 //!
 //! Speed: r^(n−1) Y_lm is written as r^(n−1−l) times a solid harmonic (a polynomial in
-//! x, y, z), so nothing divides by r; the AO coefficients of one orbital are folded into
-//! each shell's polynomial once ([`OrbitalEvaluator`]); shells whose coefficients are
-//! all zero are dropped, and an atom is skipped where ζ_min r exceeds [`DECAY_CUTOFF`].
+//! x, y, z), so nothing divides by r; the AO coefficients of one orbital are folded, once,
+//! into one constant + linear + quadratic form per atom, exponent and power of r
+//! ([`OrbitalEvaluator`]), so a point costs one square root and one exponential per atom
+//! and exponent; shells whose coefficients are all zero are dropped, and an atom is
+//! skipped where ζ_min r exceeds [`DECAY_CUTOFF`]. Grids go line by line
+//! ([`OrbitalEvaluator::add_line_bohr`]) in the plane's own frame.
 
 use nalgebra::{Matrix3, Vector3};
 
@@ -243,6 +246,64 @@ impl OrbitalEvaluator {
         OrbitalEvaluator { atoms }
     }
 
+    /// Adds ψ along a line of points (x0 + i·step, y, z), i = 0 … out.len() − 1 (bohr), to
+    /// `out`; equal to [`Self::value_at_bohr`] at each point. Atom by atom: along the line
+    /// each angular form is a quadratic a + b dx + c dx² in dx = x − x_atom, set up once per
+    /// atom, so the inner loop is one square root and one exponential per exponent.
+    pub fn add_line_bohr(&self, x0: f64, step: f64, y: f64, z: f64, out: &mut [f64]) {
+        // (ζ, power of r, a, b, c), grouped by ζ.
+        let mut terms: Vec<(f64, i32, f64, f64, f64)> = Vec::with_capacity(9);
+        for atom in &self.atoms {
+            let dy = y - atom.centre.y;
+            let dz = z - atom.centre.z;
+            let across = dy * dy + dz * dz;
+            let cutoff2 = atom.cutoff * atom.cutoff;
+            if across > cutoff2 {
+                continue;
+            }
+            terms.clear();
+            for group in &atom.groups {
+                for form in &group.forms {
+                    let (l, m) = (&form.linear, &form.quadratic);
+                    let mut a = form.constant + l.y * dy + l.z * dz;
+                    let mut b = l.x;
+                    let mut c = 0.0;
+                    if form.has_quadratic {
+                        a += m[(1, 1)] * dy * dy + m[(2, 2)] * dz * dz + 2.0 * m[(1, 2)] * dy * dz;
+                        b += 2.0 * (m[(0, 1)] * dy + m[(0, 2)] * dz);
+                        c = m[(0, 0)];
+                    }
+                    terms.push((group.zeta, form.power, a, b, c));
+                }
+            }
+            for (i, slot) in out.iter_mut().enumerate() {
+                let dx = x0 + i as f64 * step - atom.centre.x;
+                let r2 = dx * dx + across;
+                if r2 > cutoff2 {
+                    continue;
+                }
+                let r = r2.sqrt();
+                let mut sum = 0.0;
+                let mut zeta = f64::NAN;
+                let mut radial = 0.0;
+                for &(term_zeta, power, a, b, c) in &terms {
+                    if term_zeta != zeta {
+                        zeta = term_zeta;
+                        radial = (-zeta * r).exp();
+                    }
+                    let angular = a + dx * (b + c * dx);
+                    let r_power = match power {
+                        0 => 1.0,
+                        1 => r,
+                        p => r.powi(p),
+                    };
+                    sum += radial * r_power * angular;
+                }
+                *slot += sum;
+            }
+        }
+    }
+
     /// ψ at `point` given in bohr.
     pub fn value_at_bohr(&self, point: &Vector3<f64>) -> f64 {
         let mut sum = 0.0;
@@ -339,6 +400,27 @@ mod tests {
             assert!(
                 (in_frame - expected).abs() < 1e-12,
                 "{in_frame} vs {expected}"
+            );
+        }
+    }
+
+    #[test]
+    fn line_evaluation_equals_point_evaluation() {
+        // The per-line quadratic forms are an algebraic rearrangement of the point formula.
+        let basis = spd_basis();
+        let coefficients: Vec<f64> = (0..basis.len())
+            .map(|k| ((k * 29 % 13) as f64 - 6.0) / 9.0)
+            .collect();
+        let evaluator = OrbitalEvaluator::new(&basis, &coefficients);
+        let (x0, step, y, z) = (-4.0, 0.37, 0.45, -0.8);
+        let mut line = vec![0.0; 30];
+        evaluator.add_line_bohr(x0, step, y, z, &mut line);
+        for (i, value) in line.iter().enumerate() {
+            let point = Vector3::new(x0 + i as f64 * step, y, z);
+            let expected = evaluator.value_at_bohr(&point);
+            assert!(
+                (value - expected).abs() < 1e-12,
+                "{i}: {value} vs {expected}"
             );
         }
     }
