@@ -371,3 +371,35 @@ fn default_plane_shows_pi_orbitals_from_the_side() {
         assert!(sigma_plane.project(&atom.position).2.abs() < 1e-9);
     }
 }
+
+#[test]
+fn ammonia_lone_pair_is_cut_along_its_axis() {
+    // The lone pair of pyramidal NH3 lies on the C3 axis (VSEPR; e.g. Albright, Burdett and
+    // Whangbo, from memory): the default plane for n(N) contains N, H1 and that axis, which
+    // makes it a mirror plane σv, so H2 and H3 lie at opposite heights.
+    let text = std::fs::read_to_string(
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("demo_molecules/ammonia.xyz"),
+    )
+    .expect("demo ammonia");
+    let molecule = diptych::chem::io::xyz::parse_xyz(&text, "ammonia")
+        .expect("valid XYZ")
+        .molecule;
+    let analysis = Analysis::run(&molecule, &Settings::default()).expect("analysis");
+    let lone_pair = diptych::orbital_map::find_orbital(&analysis, "n(N)").expect("n(N)");
+    let plane = diptych::orbital_map::default_plane(&analysis, lone_pair).expect("plane");
+    assert!(matches!(
+        plane.kind,
+        PlaneKind::Outward {
+            atom: 0,
+            neighbour: 1
+        }
+    ));
+    let heights: Vec<f64> = molecule
+        .atoms
+        .iter()
+        .map(|a| plane.project(&a.position).2)
+        .collect();
+    assert!(heights[0].abs() < 1e-9 && heights[1].abs() < 1e-9);
+    assert!((heights[2] + heights[3]).abs() < 1e-6, "{heights:?}");
+    assert!(heights[2].abs() > 0.5);
+}

@@ -22,7 +22,8 @@ pub(super) struct MapArgs {
     /// 0-based index "mo:K", "loc:K", "hyb:K".
     #[arg(long, value_name = "LABEL")]
     orbital: String,
-    /// Plane through atoms I,J,K (0-based). Default: a plane through the orbital's atoms.
+    /// Plane through atoms I,J,K (0-based). Default: through the orbital's atoms, or the plane
+    /// perpendicular to that through its first two atoms when it holds more of the orbital.
     #[arg(long, value_name = "I,J,K", conflicts_with = "normal_to")]
     plane: Option<String>,
     /// Plane through atom I normal to the bond I–J (0-based).

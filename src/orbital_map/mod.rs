@@ -158,22 +158,28 @@ impl OrbitalMap {
 /// Below this |ψ| (bohr^(−3/2)) everywhere, the orbital is taken to vanish on the plane.
 const VANISHING: f64 = 1e-8;
 
-/// The default plane for mapping `reference`: the plane of [`Plane::default_for`] through
-/// the orbital's atoms, or the plane through its first two atoms perpendicular to it,
-/// whichever holds more of the orbital (Σψ² on a coarse grid), so that a π orbital is not
-/// shown on its own nodal plane.
+/// The default plane for mapping `reference`: among the plane of [`Plane::default_for`]
+/// through the orbital's atoms, the plane through its first two atoms perpendicular to
+/// that, and (for a pyramidal first atom) [`Plane::outward`], the one holding most of the
+/// orbital (Σψ² on a coarse grid); so a π orbital is not shown on its own nodal plane and
+/// the lone pair of a pyramidal centre is cut along its axis.
 pub fn default_plane(analysis: &Analysis, reference: OrbitalRef) -> Result<Plane, MapError> {
     let orbital = resolve(analysis, reference)?;
     let eht = analysis.eht.as_ref().ok_or(MapError::NoOrbitals)?;
-    let first =
-        Plane::default_for(&analysis.molecule, &orbital.atoms).ok_or(MapError::NoOrbitals)?;
-    let second = match &first.kind {
+    let molecule = &analysis.molecule;
+    let first = Plane::default_for(molecule, &orbital.atoms).ok_or(MapError::NoOrbitals)?;
+    let mut candidates = vec![match &first.kind {
         PlaneKind::ThroughAtoms(atoms) => first.turned_about_u(PlaneKind::PerpendicularTo(*atoms)),
         _ => first.turned_about_u(PlaneKind::Free),
-    };
+    }];
+    if orbital.atoms.len() == 1
+        && let Some(plane) = Plane::outward(molecule, orbital.atoms[0])
+    {
+        candidates.push(plane);
+    }
     let evaluator = OrbitalEvaluator::new(&eht.basis, &orbital.coefficients);
     let weight = |plane: &Plane| {
-        let positions: Vec<(f64, f64)> = project_atoms(&analysis.molecule, plane)
+        let positions: Vec<(f64, f64)> = project_atoms(molecule, plane)
             .iter()
             .map(|a| (a.x, a.y))
             .collect();
@@ -185,12 +191,15 @@ pub fn default_plane(analysis: &Analysis, reference: OrbitalRef) -> Result<Plane
             .sum();
         sum * spec.step * spec.step
     };
-    // The second plane must clearly win: a tie keeps the plane through three atoms.
-    if weight(&second) > 1.05 * weight(&first) {
-        Ok(second)
-    } else {
-        Ok(first)
+    // Another plane must clearly win: a near tie keeps the plane through three atoms.
+    let mut best = (weight(&first) * 1.05, first);
+    for plane in candidates {
+        let value = weight(&plane);
+        if value > best.0 {
+            best = (value, plane);
+        }
     }
+    Ok(best.1)
 }
 
 /// Computes the map of `reference` on `plane`.

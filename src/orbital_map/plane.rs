@@ -23,6 +23,12 @@ pub enum PlaneKind {
     },
     /// Through atoms i and j, perpendicular to the plane of i, j, k (shows π orbitals).
     PerpendicularTo([usize; 3]),
+    /// Through `atom`, its `neighbour` and the axis pointing away from the mean of the
+    /// atom's neighbours (a pyramidal centre's lone-pair axis).
+    Outward {
+        atom: usize,
+        neighbour: usize,
+    },
     /// Any other plane (given by points and axes).
     Free,
 }
@@ -96,6 +102,33 @@ impl Plane {
             v: self.normal(),
             kind,
         }
+    }
+
+    /// The plane through `atom`, its first neighbour and the axis pointing from the mean
+    /// of its neighbours through it; None unless the atom has at least two neighbours and
+    /// stands out of their plane (a pyramidal centre, where a lone pair lies on that axis).
+    pub fn outward(molecule: &Molecule, atom: usize) -> Option<Plane> {
+        let neighbours = molecule.neighbours(atom);
+        let centre = molecule.atoms.get(atom)?.position;
+        if neighbours.len() < 2 {
+            return None;
+        }
+        let mean = neighbours
+            .iter()
+            .map(|&n| molecule.atoms[n].position)
+            .sum::<Vector3<f64>>()
+            / neighbours.len() as f64;
+        let away = centre - mean;
+        if away.norm() < 0.05 {
+            return None;
+        }
+        let first = neighbours[0];
+        let mut plane = Plane::from_points(centre, molecule.atoms[first].position, centre + away)?;
+        plane.kind = PlaneKind::Outward {
+            atom,
+            neighbour: first,
+        };
+        Some(plane)
     }
 
     /// The plane through `atom` normal to the bond atom → `partner`.
@@ -229,6 +262,9 @@ impl Plane {
             PlaneKind::PerpendicularTo([i, j, k]) => {
                 format!("plane through atoms {i}, {j}, perpendicular to the plane of {i}, {j}, {k}")
             }
+            PlaneKind::Outward { atom, neighbour } => format!(
+                "plane through atoms {atom}, {neighbour} and the axis of atom {atom} away from its neighbours"
+            ),
             PlaneKind::Free => "plane".into(),
         }
     }
