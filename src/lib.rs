@@ -10,6 +10,7 @@ pub mod hybrid;
 pub mod link;
 pub mod localize;
 pub mod lone_pair_mixing;
+pub mod orbital_map;
 pub mod project;
 pub mod report;
 pub mod scan;

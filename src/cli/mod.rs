@@ -2,6 +2,7 @@
 //! writes a file lives in its own module here.
 
 mod export;
+mod map;
 mod scan;
 
 use std::io::Write;
@@ -87,6 +88,8 @@ enum Command {
     /// Walsh scan: step one coordinate and write every level's energy, λ and Σε as CSV
     /// or a Walsh diagram as SVG. Atom indices are 0-based, as in the JSON report.
     Scan(scan::ScanArgs),
+    /// Write the map of one orbital on a plane (contours, atoms, bonds) as an SVG file.
+    Map(map::MapArgs),
 }
 
 /// The hybrid models of DESIGN §4.4.
@@ -177,6 +180,7 @@ pub fn main() -> ExitCode {
             export::export(&file, &output, charge, &request)
         }
         Some(Command::Scan(args)) => scan::scan(&args),
+        Some(Command::Map(args)) => map::map(&args),
         None => open_window(cli.file, cli.screenshot),
     }
 }

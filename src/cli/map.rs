@@ -1,0 +1,170 @@
+//! `diptych map`: the orbital map of the Inspector (DESIGN §2) written as an SVG file.
+
+use std::path::{Path, PathBuf};
+use std::process::ExitCode;
+
+use clap::Args;
+
+use diptych::analysis::Analysis;
+use diptych::orbital_map::{
+    MapOptions, MapSvgOptions, Plane, compute_map, default_plane, find_orbital, map_to_svg,
+};
+
+use super::{MethodFlags, ModelArg, open_for_cli, run_analysis};
+
+/// Arguments of `diptych map`.
+#[derive(Args, Debug)]
+pub(super) struct MapArgs {
+    /// Molecule (.xyz, .mol, .sdf) or project (.diptych.ron) file.
+    file: PathBuf,
+    /// The orbital: an MO label ("3a1", "1e"; "1e#2" for the second member of a set),
+    /// "HOMO", "LUMO", a localized label ("n(N)", "σ(N–H)#2", ASCII "sigma(N-H)"), or by
+    /// 0-based index "mo:K", "loc:K", "hyb:K".
+    #[arg(long, value_name = "LABEL")]
+    orbital: String,
+    /// Plane through atoms I,J,K (0-based). Default: through the orbital's atoms, or the plane
+    /// perpendicular to that through its first two atoms when it holds more of the orbital.
+    #[arg(long, value_name = "I,J,K", conflicts_with = "normal_to")]
+    plane: Option<String>,
+    /// Plane through atom I normal to the bond I–J (0-based).
+    #[arg(long, value_name = "I,J")]
+    normal_to: Option<String>,
+    /// Output file (.svg).
+    #[arg(short, long, value_name = "OUT.svg")]
+    output: PathBuf,
+    /// Grid points a side (8 to 2048).
+    #[arg(long, default_value_t = 200)]
+    grid: usize,
+    /// Contour magnitudes in bohr^-3/2, each drawn at + and − (default 0.02,0.04,0.08,0.16,0.32).
+    #[arg(long, value_name = "A,B,...")]
+    levels: Option<String>,
+    /// Space around the atoms, Å.
+    #[arg(long, default_value_t = 2.0)]
+    margin: f64,
+    /// Net charge of the molecule (overrides the file's).
+    #[arg(long, allow_hyphen_values = true)]
+    charge: Option<i32>,
+    /// Hold each lone pair's p orbital non-bonding (the first-order diagram).
+    #[arg(long)]
+    no_lone_pair_mixing: bool,
+    /// Hybrid model for the localized picture.
+    #[arg(long, value_enum)]
+    model: Option<ModelArg>,
+    /// Replace OUT if it exists.
+    #[arg(long)]
+    force: bool,
+}
+
+fn bad_input(message: impl std::fmt::Display) -> ExitCode {
+    eprintln!("diptych: {message}");
+    ExitCode::from(2)
+}
+
+/// "0,1,2" → [0, 1, 2] with exactly `count` entries.
+fn parse_indices(text: &str, count: usize, what: &str) -> Result<Vec<usize>, String> {
+    let parts: Vec<&str> = text.split(',').map(str::trim).collect();
+    if parts.len() != count {
+        return Err(format!(
+            "{what} needs {count} comma-separated 0-based atom indices, got '{text}'"
+        ));
+    }
+    parts
+        .iter()
+        .map(|p| {
+            p.parse::<usize>()
+                .map_err(|_| format!("{what}: '{p}' is not an atom index (0-based)"))
+        })
+        .collect()
+}
+
+fn parse_levels(text: &str) -> Result<Vec<f64>, String> {
+    text.split(',')
+        .map(str::trim)
+        .map(|p| {
+            p.parse::<f64>()
+                .map_err(|_| format!("--levels: '{p}' is not a number"))
+        })
+        .collect()
+}
+
+fn choose_plane(
+    args: &MapArgs,
+    analysis: &Analysis,
+    reference: diptych::orbital_map::OrbitalRef,
+) -> Result<Plane, String> {
+    let molecule = &analysis.molecule;
+    if let Some(text) = &args.plane {
+        let atoms = parse_indices(text, 3, "--plane")?;
+        return Plane::through_atoms(molecule, [atoms[0], atoms[1], atoms[2]])
+            .map_err(|e| e.to_string());
+    }
+    if let Some(text) = &args.normal_to {
+        let atoms = parse_indices(text, 2, "--normal-to")?;
+        return Plane::normal_to_bond(molecule, atoms[0], atoms[1]).map_err(|e| e.to_string());
+    }
+    default_plane(analysis, reference).map_err(|e| e.to_string())
+}
+
+pub(super) fn map(args: &MapArgs) -> ExitCode {
+    let options = MapOptions {
+        points: args.grid,
+        margin: args.margin,
+        levels: match &args.levels {
+            Some(text) => match parse_levels(text) {
+                Ok(levels) => levels,
+                Err(message) => return bad_input(message),
+            },
+            None => MapOptions::default().levels,
+        },
+        nodal_line: true,
+    };
+    if let Err(error) = options.validated_levels() {
+        return bad_input(error);
+    }
+    let output: &Path = &args.output;
+    let extension = output
+        .extension()
+        .and_then(|e| e.to_str())
+        .map(str::to_ascii_lowercase);
+    if extension.as_deref() != Some("svg") {
+        return bad_input(format!(
+            "the output '{}' must end in .svg",
+            output.display()
+        ));
+    }
+    if output.exists() && !args.force {
+        return bad_input(format!(
+            "'{}' exists; add --force to replace it",
+            output.display()
+        ));
+    }
+    let flags = MethodFlags {
+        no_lone_pair_mixing: args.no_lone_pair_mixing,
+        model: args.model,
+    };
+    let analysis = match open_for_cli(&args.file, args.charge).and_then(|opened| {
+        let mut settings = opened.project.settings.clone();
+        flags.apply(&mut settings);
+        run_analysis(&opened, &settings)
+    }) {
+        Ok(analysis) => analysis,
+        Err(code) => return code,
+    };
+    let reference = match find_orbital(&analysis, &args.orbital) {
+        Ok(reference) => reference,
+        Err(error) => return bad_input(error),
+    };
+    let plane = match choose_plane(args, &analysis, reference) {
+        Ok(plane) => plane,
+        Err(message) => return bad_input(message),
+    };
+    let map = match compute_map(&analysis, reference, &plane, &options) {
+        Ok(map) => map,
+        Err(error) => return bad_input(error),
+    };
+    let svg = map_to_svg(&map, &MapSvgOptions::default());
+    match diptych::chem::io::write_atomically(output, svg.as_bytes()) {
+        Ok(()) => ExitCode::SUCCESS,
+        Err(error) => bad_input(format!("cannot write '{}': {error}", output.display())),
+    }
+}
