@@ -5,7 +5,7 @@
 
 use std::fmt::Write;
 
-use super::layout::{Diagram, Level};
+use super::layout::{Diagram, Level, Link};
 use super::style::{Script, format_energy, label_runs, level_rgb, to_grey};
 
 /// Export choices (DESIGN §5.3).
@@ -22,6 +22,63 @@ pub struct SvgOptions {
     pub show_energies: bool,
     /// White background (true) or transparent (false).
     pub white_background: bool,
+    /// Which ladders are drawn; a single ladder gives a narrower figure (see `Ladders`).
+    pub ladders: Ladders,
+    /// Draw where each level moves with the lone-pair switch flipped (DESIGN §4.6).
+    pub show_level_shifts: bool,
+}
+
+/// Which ladders an exported figure holds. With one ladder the correlation lines are left
+/// out and the figure is cropped to that ladder and the energy axis; the layout itself (and
+/// so every level's height) is the one on screen.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
+pub enum Ladders {
+    #[default]
+    Both,
+    DelocalizedOnly,
+    LocalizedOnly,
+}
+
+impl Ladders {
+    /// Whether the ladder with this index (0 delocalized, 1 localized) is drawn.
+    pub fn draws(self, ladder: usize) -> bool {
+        match self {
+            Ladders::Both => true,
+            Ladders::DelocalizedOnly => ladder == 0,
+            Ladders::LocalizedOnly => ladder == 1,
+        }
+    }
+}
+
+/// Layout units kept when only the delocalized ladder is drawn: the axis, the ladder and
+/// its HOMO/LUMO tags (the ladder ends at 440).
+const DELOCALIZED_CROP: f64 = 560.0;
+/// When only the localized ladder is drawn it is moved left by this much, into the place
+/// of the delocalized one, and the figure is cropped to `LOCALIZED_CROP`.
+const LOCALIZED_SHIFT: f64 = 340.0;
+const LOCALIZED_CROP: f64 = 680.0;
+
+impl SvgOptions {
+    /// Width of the visible part of the layout (layout units) for the chosen ladders.
+    pub fn view_width(&self, diagram: &Diagram) -> f64 {
+        match self.ladders {
+            Ladders::Both => diagram.width,
+            Ladders::DelocalizedOnly => DELOCALIZED_CROP.min(diagram.width),
+            Ladders::LocalizedOnly => LOCALIZED_CROP.min(diagram.width),
+        }
+    }
+
+    /// Width of the SVG document in CSS pixels: `width` for the full figure, in proportion
+    /// for a single ladder so that both keep the same scale.
+    pub fn document_width(&self, diagram: &Diagram) -> f64 {
+        self.width * self.view_width(diagram) / diagram.width.max(1e-9)
+    }
+
+    /// CSS pixels per layout unit, vertically; the diagram's `y_of` times this is a
+    /// level's height in the document.
+    pub fn vertical_scale(&self, diagram: &Diagram) -> f64 {
+        self.height / diagram.height.max(1e-9)
+    }
 }
 
 impl Default for SvgOptions {
@@ -34,6 +91,8 @@ impl Default for SvgOptions {
             greyscale: false,
             show_energies: true,
             white_background: true,
+            ladders: Ladders::Both,
+            show_level_shifts: true,
         }
     }
 }
@@ -109,22 +168,24 @@ pub fn to_svg(diagram: &Diagram, options: &SvgOptions) -> String {
     let _ = writeln!(
         svg,
         "<svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" width=\"{}\" height=\"{}\" viewBox=\"0 0 {} {}\" font-family=\"{font}\">",
-        number(options.width),
+        number(options.document_width(diagram)),
         number(options.height),
-        number(diagram.width),
+        number(options.view_width(diagram)),
         number(diagram.height)
     );
     let titles: Vec<String> = diagram
         .ladders
         .iter()
-        .map(|l| escape_xml(&l.title))
+        .enumerate()
+        .filter(|(index, _)| options.ladders.draws(*index))
+        .map(|(_, l)| escape_xml(&l.title))
         .collect();
     let _ = writeln!(svg, "<title>{}</title>", titles.join(" | "));
     if options.white_background {
         let _ = writeln!(
             svg,
             "<rect x=\"0\" y=\"0\" width=\"{}\" height=\"{}\" fill=\"#ffffff\"/>",
-            number(diagram.width),
+            number(options.view_width(diagram)),
             number(diagram.height)
         );
     }
@@ -160,12 +221,17 @@ pub fn to_svg(diagram: &Diagram, options: &SvgOptions) -> String {
         number(options.font_size * 0.9)
     );
     let _ = writeln!(svg, "</g>");
-    // Correlation lines.
+    // Correlation lines, only between two drawn ladders.
+    let links: &[Link] = if options.ladders == Ladders::Both {
+        &diagram.links
+    } else {
+        &[]
+    };
     let _ = writeln!(
         svg,
         "<g id=\"links\" stroke=\"{faint}\" stroke-linecap=\"round\">"
     );
-    for link in &diagram.links {
+    for link in links {
         let _ = writeln!(
             svg,
             "<line x1=\"{}\" y1=\"{}\" x2=\"{}\" y2=\"{}\" stroke-width=\"{}\" stroke-opacity=\"{}\"/>",
@@ -179,7 +245,18 @@ pub fn to_svg(diagram: &Diagram, options: &SvgOptions) -> String {
     }
     let _ = writeln!(svg, "</g>");
     for (index, ladder) in diagram.ladders.iter().enumerate() {
-        let _ = writeln!(svg, "<g id=\"ladder-{index}\">");
+        if !options.ladders.draws(index) {
+            continue;
+        }
+        if index == 1 && options.ladders == Ladders::LocalizedOnly {
+            let _ = writeln!(
+                svg,
+                "<g id=\"ladder-{index}\" transform=\"translate({} 0)\">",
+                number(-LOCALIZED_SHIFT)
+            );
+        } else {
+            let _ = writeln!(svg, "<g id=\"ladder-{index}\">");
+        }
         let _ = writeln!(
             svg,
             "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"middle\" fill=\"{ink}\">{}</text>",
@@ -221,7 +298,7 @@ fn write_level(
     );
     // Where the level goes with the lone-pair switch flipped: a faint dotted bar and an
     // arrow from here to there.
-    if let Some(shifted) = level.shifted_y {
+    if let Some(shifted) = level.shifted_y.filter(|_| options.show_level_shifts) {
         let _ = writeln!(
             svg,
             "<line x1=\"{}\" y1=\"{s}\" x2=\"{}\" y2=\"{s}\" stroke=\"{faint}\" stroke-width=\"1.5\" stroke-dasharray=\"2 3\"/><line x1=\"{x}\" y1=\"{}\" x2=\"{x}\" y2=\"{s}\" stroke=\"{faint}\" stroke-width=\"1\"/>",
