@@ -139,8 +139,8 @@ fn ammonia_level_bars_sit_at_the_heights_of_their_energies() {
     let image = rasterize(&svg, Resolution::Dpi(dpi)).expect("renders");
     // CSS pixels are 1/96 inch (CSS Values and Units Level 3, §5.2).
     let pixels_per_unit_y = options.vertical_scale(&diagram) * dpi / 96.0;
-    let pixels_per_unit_x = options.document_width(&diagram) / options.view_width(&diagram) * dpi
-        / 96.0;
+    let pixels_per_unit_x =
+        options.document_width(&diagram) / options.view_width(&diagram) * dpi / 96.0;
     assert_eq!(
         image.height() as f64,
         (diagram.height * pixels_per_unit_y).round()
@@ -311,7 +311,10 @@ fn export_is_deterministic_and_single_ladders_keep_the_scale() {
         let svg = export_svg(&diagram, &options).expect("valid");
         let document = roxmltree::Document::parse(&svg).expect("XML");
         let root = document.root_element();
-        let width: f64 = root.attribute("width").and_then(|w| w.parse().ok()).unwrap();
+        let width: f64 = root
+            .attribute("width")
+            .and_then(|w| w.parse().ok())
+            .unwrap();
         let view: Vec<f64> = root
             .attribute("viewBox")
             .unwrap()
