@@ -115,14 +115,32 @@ pub fn escape_xml(text: &str) -> String {
     out
 }
 
-fn number(value: f64) -> String {
-    let text = format!("{value:.2}");
-    let text = text.trim_end_matches('0').trim_end_matches('.');
-    if text == "-0" {
-        "0".into()
-    } else {
-        text.to_string()
+/// A coordinate with at most two decimals and no trailing zeros ("12.5", "-3", "0"),
+/// written straight into the output (no allocation; the writer runs per level and link).
+#[derive(Clone, Copy)]
+struct Number(f64);
+
+impl std::fmt::Display for Number {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        let hundredths = (self.0 * 100.0).round();
+        if !hundredths.is_finite() || hundredths == 0.0 {
+            return f.write_str("0");
+        }
+        let magnitude = hundredths.abs() as u64;
+        if hundredths < 0.0 {
+            f.write_str("-")?;
+        }
+        let (whole, fraction) = (magnitude / 100, magnitude % 100);
+        match fraction {
+            0 => write!(f, "{whole}"),
+            f10 if f10 % 10 == 0 => write!(f, "{whole}.{}", f10 / 10),
+            _ => write!(f, "{whole}.{fraction:02}"),
+        }
     }
+}
+
+fn number(value: f64) -> Number {
+    Number(value)
 }
 
 fn colour(rgb: [u8; 3], greyscale: bool) -> String {
@@ -132,6 +150,57 @@ fn colour(rgb: [u8; 3], greyscale: bool) -> String {
 
 const INK: [u8; 3] = [34, 34, 34];
 const FAINT: [u8; 3] = [130, 130, 130];
+
+/// One drawn correlation line.
+struct LinkStroke {
+    from: (f64, f64),
+    to: (f64, f64),
+    width: f64,
+    opacity: f64,
+}
+
+/// Width and opacity of a correlation line grow with its weight (our own scale).
+fn link_width(weight: f64) -> f64 {
+    0.8 + 4.0 * weight.clamp(0.0, 1.0)
+}
+
+fn link_opacity(weight: f64) -> f64 {
+    0.25 + 0.75 * weight.clamp(0.0, 1.0)
+}
+
+/// The links as strokes, with lines that share both ends (the members of an equivalent
+/// set all leave from the set's inner end) drawn once: as wide as the widest and as opaque
+/// as the stack, 1 − Π(1 − αᵢ), which is what n strokes of one colour composite to
+/// (Porter and Duff, Computer Graphics 18(3), 253 (1984), "over"). Same look, far fewer
+/// elements for large symmetric molecules (C60: about ten times fewer).
+fn merged_links(links: &[Link]) -> Vec<LinkStroke> {
+    let key = |link: &Link| {
+        [link.from.0, link.from.1, link.to.0, link.to.1].map(|v| (v * 100.0).round() as i64)
+    };
+    let mut strokes: Vec<LinkStroke> = Vec::new();
+    let mut index_of: std::collections::HashMap<[i64; 4], usize> =
+        std::collections::HashMap::with_capacity(links.len());
+    for link in links {
+        let (width, opacity) = (link_width(link.weight), link_opacity(link.weight));
+        match index_of.get(&key(link)) {
+            Some(&n) => {
+                let stroke = &mut strokes[n];
+                stroke.width = stroke.width.max(width);
+                stroke.opacity = 1.0 - (1.0 - stroke.opacity) * (1.0 - opacity);
+            }
+            None => {
+                index_of.insert(key(link), strokes.len());
+                strokes.push(LinkStroke {
+                    from: link.from,
+                    to: link.to,
+                    width,
+                    opacity,
+                });
+            }
+        }
+    }
+    strokes
+}
 
 /// Label text as `tspan` runs with baseline shifts that are undone after each run.
 fn label_markup(label: &str, font_size: f64) -> String {
@@ -160,7 +229,9 @@ fn label_markup(label: &str, font_size: f64) -> String {
 
 /// The diagram as a standalone SVG document.
 pub fn to_svg(diagram: &Diagram, options: &SvgOptions) -> String {
-    let mut svg = String::new();
+    // About 600 bytes per level and 130 per link; one allocation for most figures.
+    let levels: usize = diagram.ladders.iter().map(|l| l.levels.len()).sum();
+    let mut svg = String::with_capacity(4096 + 600 * levels + 130 * diagram.links.len());
     let font = escape_xml(&options.font_family);
     let ink = colour(INK, options.greyscale);
     let faint = colour(FAINT, options.greyscale);
@@ -231,16 +302,16 @@ pub fn to_svg(diagram: &Diagram, options: &SvgOptions) -> String {
         svg,
         "<g id=\"links\" stroke=\"{faint}\" stroke-linecap=\"round\">"
     );
-    for link in links {
+    for stroke in merged_links(links) {
         let _ = writeln!(
             svg,
             "<line x1=\"{}\" y1=\"{}\" x2=\"{}\" y2=\"{}\" stroke-width=\"{}\" stroke-opacity=\"{}\"/>",
-            number(link.from.0),
-            number(link.from.1),
-            number(link.to.0),
-            number(link.to.1),
-            number(0.8 + 4.0 * link.weight.clamp(0.0, 1.0)),
-            number(0.25 + 0.75 * link.weight.clamp(0.0, 1.0))
+            number(stroke.from.0),
+            number(stroke.from.1),
+            number(stroke.to.0),
+            number(stroke.to.1),
+            number(stroke.width),
+            number(stroke.opacity)
         );
     }
     let _ = writeln!(svg, "</g>");
@@ -439,6 +510,39 @@ mod tests {
         assert_eq!(a, b);
         assert!(a.contains("<tspan>3a</tspan><tspan dy="));
         assert!(a.contains("stroke-dasharray"), "virtual level dashed");
+    }
+
+    #[test]
+    fn coincident_links_are_drawn_once_as_opaque_as_their_stack() {
+        let link = |from_y: f64, weight: f64| Link {
+            localized_key: 0,
+            delocalized_group: 0,
+            weight,
+            from: (580.0, from_y),
+            to: (440.0, 300.0),
+        };
+        let strokes = merged_links(&[link(200.0, 0.4), link(200.0, 0.4), link(250.0, 0.4)]);
+        assert_eq!(strokes.len(), 2);
+        let single = link_opacity(0.4);
+        assert!((strokes[0].opacity - (1.0 - (1.0 - single).powi(2))).abs() < 1e-12);
+        assert!((strokes[1].opacity - single).abs() < 1e-12);
+        assert_eq!(strokes[0].width, link_width(0.4));
+    }
+
+    #[test]
+    fn numbers_have_two_decimals_at_most_and_no_negative_zero() {
+        let cases = [
+            (12.5, "12.5"),
+            (-3.0, "-3"),
+            (-0.001, "0"),
+            (0.126, "0.13"),
+            (588.0349, "588.03"),
+            (-16.457, "-16.46"),
+            (f64::NAN, "0"),
+        ];
+        for (value, text) in cases {
+            assert_eq!(number(value).to_string(), text, "{value}");
+        }
     }
 
     #[test]
