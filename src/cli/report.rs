@@ -33,11 +33,13 @@ pub(super) struct ReportArgs {
 }
 
 pub(super) fn report(args: &ReportArgs) -> ExitCode {
-    let format = match extension_among(&args.output, &["md", "markdown", "csv", "json", "txt"])
-        .map(|extension| ReportFormat::from_extension(&extension))
-    {
-        Ok(Some(format)) => format,
-        Ok(None) | Err(_) => return ExitCode::from(2),
+    let extension = match extension_among(&args.output, &["md", "markdown", "csv", "json", "txt"]) {
+        Ok(extension) => extension,
+        Err(code) => return code,
+    };
+    let Some(format) = ReportFormat::from_extension(&extension) else {
+        eprintln!("diptych: no report format for '.{extension}'");
+        return ExitCode::from(2);
     };
     if let Err(code) = check_replaceable(&args.output, args.force) {
         return code;
