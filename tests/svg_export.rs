@@ -8,6 +8,7 @@ use diptych::analysis::Analysis;
 use diptych::diagram::png::RasterImage;
 use diptych::diagram::{
     Diagram, DiagramOptions, Ladders, Resolution, SvgOptions, diagram_for, export_svg, rasterize,
+    render_png,
 };
 use diptych::project::{LadderTitles, open_path};
 
@@ -85,8 +86,12 @@ fn every_demo_svg_parses_as_xml_and_as_svg_and_renders_ink() {
                 root.tag_name().namespace(),
                 Some("http://www.w3.org/2000/svg")
             );
-            let image = rasterize(&svg, Resolution::Dpi(48.0))
+            let png = render_png(&svg, Resolution::Dpi(48.0))
                 .unwrap_or_else(|e| panic!("{}: usvg/resvg refused it: {e}", file.display()));
+            let image = RasterImage::decode_png(&png).expect("a readable PNG");
+            // CSS pixels are 1/96 inch (CSS Values and Units Level 3, §5.2).
+            let expected_width = (options.document_width(&diagram) * 48.0 / 96.0).round();
+            assert_eq!(image.width() as f64, expected_width);
             let share = inked_share(&image);
             // Bars, axis, labels and titles cover a few per cent of the figure; an empty
             // or white-on-white render would be ~0.
