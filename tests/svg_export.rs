@@ -92,6 +92,12 @@ fn every_demo_svg_parses_as_xml_and_as_svg_and_renders_ink() {
             // CSS pixels are 1/96 inch (CSS Values and Units Level 3, §5.2).
             let expected_width = (options.document_width(&diagram) * 48.0 / 96.0).round();
             assert_eq!(image.width() as f64, expected_width);
+            let corner = image.pixel(0, image.height() - 1).expect("inside");
+            if options.white_background {
+                assert_eq!((corner.red(), corner.alpha()), (255, 255), "white corner");
+            } else {
+                assert_eq!(corner.alpha(), 0, "transparent corner");
+            }
             let share = inked_share(&image);
             // Bars, axis, labels and titles cover a few per cent of the figure; an empty
             // or white-on-white render would be ~0.
