@@ -1,54 +1,121 @@
-//! `diptych export`: the correlation diagram of DESIGN §5.3 written as a standalone file.
+//! `diptych export`: the correlation diagram of DESIGN §5.3 written as a standalone SVG
+//! file or as a PNG rendered from that same SVG.
 
-use std::path::Path;
+use std::path::PathBuf;
 use std::process::ExitCode;
 
-use super::{MethodFlags, open_for_cli, run_analysis};
+use clap::{Args, ValueEnum};
 
-pub(super) struct ExportRequest {
-    pub(super) flags: MethodFlags,
-    pub(super) names: Option<Vec<String>>,
-    pub(super) greyscale: bool,
-    pub(super) width: f64,
-    pub(super) height: f64,
-    pub(super) force: bool,
+use diptych::diagram::{DiagramOptions, Ladders, Resolution, SvgOptions, diagram_for};
+
+use super::output::{check_replaceable, extension_among, write_output};
+use super::{MethodFlags, ModelArg, open_for_cli, run_analysis};
+
+/// Which ladders go into the figure.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
+pub(super) enum LaddersArg {
+    Both,
+    Delocalized,
+    Localized,
 }
 
-pub(super) fn export(
-    file: &Path,
-    output: &Path,
+impl From<LaddersArg> for Ladders {
+    fn from(value: LaddersArg) -> Self {
+        match value {
+            LaddersArg::Both => Ladders::Both,
+            LaddersArg::Delocalized => Ladders::DelocalizedOnly,
+            LaddersArg::Localized => Ladders::LocalizedOnly,
+        }
+    }
+}
+
+#[derive(Args, Debug)]
+pub(super) struct ExportArgs {
+    /// Molecule (.xyz, .mol, .sdf) or project (.diptych.ron) file.
+    file: PathBuf,
+    /// Output file (.svg or .png).
+    #[arg(short, long, value_name = "OUT.svg|OUT.png")]
+    output: PathBuf,
+    /// Titles of the two ladders (delocalized, localized); neither may be empty.
+    #[arg(long, num_args = 2, value_names = ["LEFT", "RIGHT"])]
+    names: Option<Vec<String>>,
+    /// Net charge of the molecule (overrides the file's).
+    #[arg(long, allow_hyphen_values = true)]
     charge: Option<i32>,
-    request: &ExportRequest,
-) -> ExitCode {
-    let valid_size = |v: f64| v.is_finite() && (1.0..=100_000.0).contains(&v);
-    if !valid_size(request.width) || !valid_size(request.height) {
-        eprintln!(
-            "diptych: the size {}×{} is not usable (width and height must be 1 to 100000 pixels)",
-            request.width, request.height
-        );
-        return ExitCode::from(2);
+    /// Hold each lone pair's p orbital non-bonding (the first-order diagram).
+    #[arg(long)]
+    no_lone_pair_mixing: bool,
+    /// Hybrid model for the localized picture.
+    #[arg(long, value_enum)]
+    model: Option<ModelArg>,
+    /// Grey tones only (for print).
+    #[arg(long)]
+    greyscale: bool,
+    /// Width of the two-ladder drawing in CSS pixels (1/96 inch).
+    #[arg(long, default_value_t = 1000.0, allow_hyphen_values = true)]
+    width: f64,
+    /// Height of the drawing in CSS pixels (1/96 inch).
+    #[arg(long, default_value_t = 700.0, allow_hyphen_values = true)]
+    height: f64,
+    /// PNG resolution in dots per inch (96 gives one pixel per CSS pixel).
+    #[arg(long, default_value_t = 96.0, allow_hyphen_values = true)]
+    dpi: f64,
+    /// Which ladders to draw.
+    #[arg(long, value_enum, default_value_t = LaddersArg::Both)]
+    ladders: LaddersArg,
+    /// Correlation lines with a smaller weight are left out (default: the project's).
+    #[arg(long, allow_hyphen_values = true)]
+    link_threshold: Option<f64>,
+    /// Leave the orbital energies out of the labels.
+    #[arg(long)]
+    no_energies: bool,
+    /// Leave out the markers of where levels move with the lone-pair switch flipped.
+    #[arg(long)]
+    no_level_shifts: bool,
+    /// Transparent instead of white background.
+    #[arg(long)]
+    transparent: bool,
+    /// Font size of level labels (the layout is 1000 units wide).
+    #[arg(long, default_value_t = 16.0, allow_hyphen_values = true)]
+    font_size: f64,
+    /// Replace OUT if it exists.
+    #[arg(long)]
+    force: bool,
+}
+
+fn bad_input(message: impl std::fmt::Display) -> ExitCode {
+    eprintln!("diptych: {message}");
+    ExitCode::from(2)
+}
+
+pub(super) fn export(args: &ExportArgs) -> ExitCode {
+    let output = &args.output;
+    let extension = match extension_among(output, &["svg", "png"]) {
+        Ok(extension) => extension,
+        Err(code) => return code,
+    };
+    if let Some(names) = &args.names
+        && names.iter().any(|name| name.trim().is_empty())
+    {
+        return bad_input("a ladder title given with --names is empty");
     }
-    let extension = output
-        .extension()
-        .and_then(|e| e.to_str())
-        .map(str::to_ascii_lowercase);
-    if extension.as_deref() != Some("svg") {
-        eprintln!(
-            "diptych: the output '{}' must end in .svg",
-            output.display()
-        );
-        return ExitCode::from(2);
+    if let Some(threshold) = args.link_threshold
+        && !(threshold.is_finite() && (0.0..=1.0).contains(&threshold))
+    {
+        return bad_input(format!(
+            "the link threshold {threshold} is not usable (it must be 0 to 1)"
+        ));
     }
-    if output.exists() && !request.force {
-        eprintln!(
-            "diptych: '{}' exists; add --force to replace it",
-            output.display()
-        );
-        return ExitCode::from(2);
+    if let Err(code) = check_replaceable(output, args.force) {
+        return code;
     }
-    let result = open_for_cli(file, charge).and_then(|opened| {
+    let flags = MethodFlags {
+        no_lone_pair_mixing: args.no_lone_pair_mixing,
+        model: args.model,
+    };
+    let result = open_for_cli(&args.file, args.charge).and_then(|opened| {
         let mut settings = opened.project.settings.clone();
-        request.flags.apply(&mut settings);
+        flags.apply(&mut settings);
         run_analysis(&opened, &settings).map(|analysis| (opened, analysis))
     });
     let (opened, analysis) = match result {
@@ -56,29 +123,36 @@ pub(super) fn export(
         Err(code) => return code,
     };
     let mut titles = opened.project.titles.clone();
-    if let Some([left, right]) = request.names.as_deref() {
+    if let Some([left, right]) = args.names.as_deref() {
         titles.delocalized = left.clone();
         titles.localized = right.clone();
     }
-    let options = diptych::diagram::DiagramOptions {
+    let options = DiagramOptions {
         titles,
-        link_threshold: opened.project.view.link_threshold,
+        link_threshold: args
+            .link_threshold
+            .unwrap_or(opened.project.view.link_threshold),
         ..Default::default()
     };
-    let diagram = diptych::diagram::diagram_for(&analysis, &options);
-    let svg_options = diptych::diagram::SvgOptions {
-        width: request.width,
-        height: request.height,
-        greyscale: request.greyscale,
-        show_energies: opened.project.view.show_energies,
+    let diagram = diagram_for(&analysis, &options);
+    let svg_options = SvgOptions {
+        width: args.width,
+        height: args.height,
+        font_size: args.font_size,
+        greyscale: args.greyscale,
+        show_energies: opened.project.view.show_energies && !args.no_energies,
+        white_background: !args.transparent,
+        ladders: args.ladders.into(),
+        show_level_shifts: !args.no_level_shifts,
         ..Default::default()
     };
-    let svg = diptych::diagram::to_svg(&diagram, &svg_options);
-    match diptych::chem::io::write_atomically(output, svg.as_bytes()) {
-        Ok(()) => ExitCode::SUCCESS,
-        Err(error) => {
-            eprintln!("diptych: cannot write '{}': {error}", output.display());
-            ExitCode::from(2)
-        }
+    let bytes = if extension == "png" {
+        diptych::diagram::export_png(&diagram, &svg_options, Resolution::Dpi(args.dpi))
+    } else {
+        diptych::diagram::export_svg(&diagram, &svg_options).map(String::into_bytes)
+    };
+    match bytes {
+        Ok(bytes) => write_output(output, &bytes),
+        Err(error) => bad_input(error),
     }
 }

@@ -3,6 +3,8 @@
 
 mod export;
 mod map;
+mod output;
+mod report;
 mod scan;
 
 use std::io::Write;
@@ -13,7 +15,6 @@ use clap::{Parser, Subcommand, ValueEnum};
 
 use diptych::analysis::{Analysis, Settings};
 use diptych::project::{Opened, open_path};
-use diptych::report;
 
 /// Diptych puts a molecule's two bonding pictures side by side: the delocalized,
 /// symmetry-labelled molecular orbitals and the localized directed hybrids, bonds and
@@ -53,38 +54,10 @@ enum Command {
         #[arg(long, value_enum)]
         model: Option<ModelArg>,
     },
-    /// Export the correlation diagram as a standalone SVG file.
-    Export {
-        /// Molecule (.xyz, .mol, .sdf) or project (.diptych.ron) file.
-        file: PathBuf,
-        /// Output file (.svg).
-        #[arg(short, long, value_name = "OUT.svg")]
-        output: PathBuf,
-        /// Titles of the two ladders (delocalized, localized).
-        #[arg(long, num_args = 2, value_names = ["LEFT", "RIGHT"])]
-        names: Option<Vec<String>>,
-        /// Net charge of the molecule (overrides the file's).
-        #[arg(long, allow_hyphen_values = true)]
-        charge: Option<i32>,
-        /// Hold each lone pair's p orbital non-bonding (the first-order diagram).
-        #[arg(long)]
-        no_lone_pair_mixing: bool,
-        /// Hybrid model for the localized picture.
-        #[arg(long, value_enum)]
-        model: Option<ModelArg>,
-        /// Grey tones only (for print).
-        #[arg(long)]
-        greyscale: bool,
-        /// Width of the drawing in pixels.
-        #[arg(long, default_value_t = 1000.0)]
-        width: f64,
-        /// Height of the drawing in pixels.
-        #[arg(long, default_value_t = 700.0)]
-        height: f64,
-        /// Replace OUT if it exists.
-        #[arg(long)]
-        force: bool,
-    },
+    /// Export the correlation diagram as a standalone SVG or PNG file.
+    Export(export::ExportArgs),
+    /// Write the analysis to a file: Markdown or CSV tables, JSON or text.
+    Report(report::ReportArgs),
     /// Walsh scan: step one coordinate and write every level's energy, λ and Σε as CSV
     /// or a Walsh diagram as SVG. Atom indices are 0-based, as in the JSON report.
     Scan(scan::ScanArgs),
@@ -154,31 +127,8 @@ pub fn main() -> ExitCode {
             };
             analyze(&file, charge, format, flags)
         }
-        Some(Command::Export {
-            file,
-            output,
-            names,
-            charge,
-            no_lone_pair_mixing,
-            model,
-            greyscale,
-            width,
-            height,
-            force,
-        }) => {
-            let request = export::ExportRequest {
-                flags: MethodFlags {
-                    no_lone_pair_mixing,
-                    model,
-                },
-                names,
-                greyscale,
-                width,
-                height,
-                force,
-            };
-            export::export(&file, &output, charge, &request)
-        }
+        Some(Command::Export(args)) => export::export(&args),
+        Some(Command::Report(args)) => report::report(&args),
         Some(Command::Scan(args)) => scan::scan(&args),
         Some(Command::Map(args)) => map::map(&args),
         None => open_window(cli.file, cli.screenshot),
@@ -222,8 +172,8 @@ fn analyze(file: &Path, charge: Option<i32>, format: Format, flags: MethodFlags)
         Err(code) => return code,
     };
     let output = match format {
-        Format::Text => report::to_text(&analysis),
-        Format::Json => report::to_json(&analysis) + "\n",
+        Format::Text => diptych::report::to_text(&analysis),
+        Format::Json => diptych::report::to_json(&analysis) + "\n",
     };
     print_or_fail(&output)
 }

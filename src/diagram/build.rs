@@ -106,22 +106,25 @@ pub fn diagram_for(analysis: &Analysis, options: &DiagramOptions) -> Diagram {
             .collect(),
     };
     // Sum weights over each degenerate set (DESIGN §4.6), then apply the threshold.
+    // A map finds each pair's entry (a linear search was quadratic: C60 has 12 000 weights).
     let mut links: Vec<LinkInput> = Vec::new();
+    let mut position: std::collections::HashMap<(usize, usize), usize> =
+        std::collections::HashMap::new();
     for link in &analysis.links {
         let Some(&target) = group_of.get(link.canonical) else {
             continue;
         };
         let key = LOCALIZED_KEY_OFFSET + link.localized;
-        match links
-            .iter_mut()
-            .find(|l| l.localized_key == key && l.delocalized_group == target)
-        {
-            Some(existing) => existing.weight += link.weight,
-            None => links.push(LinkInput {
-                localized_key: key,
-                delocalized_group: target,
-                weight: link.weight,
-            }),
+        match position.get(&(key, target)) {
+            Some(&n) => links[n].weight += link.weight,
+            None => {
+                position.insert((key, target), links.len());
+                links.push(LinkInput {
+                    localized_key: key,
+                    delocalized_group: target,
+                    weight: link.weight,
+                });
+            }
         }
     }
     links.retain(|l| l.weight >= options.link_threshold);

@@ -3,10 +3,14 @@
 //! figure on screen and the exported one are the same layout.
 
 pub mod build;
+pub mod export;
 pub mod layout;
+pub mod png;
 pub mod style;
 pub mod svg;
 
 pub use build::{DiagramOptions, diagram_for};
+pub use export::{ExportError, export_png, export_svg};
 pub use layout::{Diagram, LadderInput, LevelInput, LinkInput, Side, layout, layout_in};
-pub use svg::{SvgOptions, to_svg};
+pub use png::{Resolution, rasterize, render_png};
+pub use svg::{Ladders, SvgOptions, to_svg};

@@ -5,7 +5,7 @@
 
 use std::fmt::Write;
 
-use super::layout::{Diagram, Level};
+use super::layout::{Diagram, Level, Link};
 use super::style::{Script, format_energy, label_runs, level_rgb, to_grey};
 
 /// Export choices (DESIGN §5.3).
@@ -22,6 +22,63 @@ pub struct SvgOptions {
     pub show_energies: bool,
     /// White background (true) or transparent (false).
     pub white_background: bool,
+    /// Which ladders are drawn; a single ladder gives a narrower figure (see `Ladders`).
+    pub ladders: Ladders,
+    /// Draw where each level moves with the lone-pair switch flipped (DESIGN §4.6).
+    pub show_level_shifts: bool,
+}
+
+/// Which ladders an exported figure holds. With one ladder the correlation lines are left
+/// out and the figure is cropped to that ladder and the energy axis; the layout itself (and
+/// so every level's height) is the one on screen.
+#[derive(Clone, Copy, Debug, Default, PartialEq, Eq)]
+pub enum Ladders {
+    #[default]
+    Both,
+    DelocalizedOnly,
+    LocalizedOnly,
+}
+
+impl Ladders {
+    /// Whether the ladder with this index (0 delocalized, 1 localized) is drawn.
+    pub fn draws(self, ladder: usize) -> bool {
+        match self {
+            Ladders::Both => true,
+            Ladders::DelocalizedOnly => ladder == 0,
+            Ladders::LocalizedOnly => ladder == 1,
+        }
+    }
+}
+
+/// Layout units kept when only the delocalized ladder is drawn: the axis, the ladder and
+/// its HOMO/LUMO tags (the ladder ends at 440).
+const DELOCALIZED_CROP: f64 = 560.0;
+/// When only the localized ladder is drawn it is moved left by this much, into the place
+/// of the delocalized one, and the figure is cropped to `LOCALIZED_CROP`.
+const LOCALIZED_SHIFT: f64 = 340.0;
+const LOCALIZED_CROP: f64 = 680.0;
+
+impl SvgOptions {
+    /// Width of the visible part of the layout (layout units) for the chosen ladders.
+    pub fn view_width(&self, diagram: &Diagram) -> f64 {
+        match self.ladders {
+            Ladders::Both => diagram.width,
+            Ladders::DelocalizedOnly => DELOCALIZED_CROP.min(diagram.width),
+            Ladders::LocalizedOnly => LOCALIZED_CROP.min(diagram.width),
+        }
+    }
+
+    /// Width of the SVG document in CSS pixels: `width` for the full figure, in proportion
+    /// for a single ladder so that both keep the same scale.
+    pub fn document_width(&self, diagram: &Diagram) -> f64 {
+        self.width * self.view_width(diagram) / diagram.width.max(1e-9)
+    }
+
+    /// CSS pixels per layout unit, vertically; the diagram's `y_of` times this is a
+    /// level's height in the document.
+    pub fn vertical_scale(&self, diagram: &Diagram) -> f64 {
+        self.height / diagram.height.max(1e-9)
+    }
 }
 
 impl Default for SvgOptions {
@@ -34,6 +91,8 @@ impl Default for SvgOptions {
             greyscale: false,
             show_energies: true,
             white_background: true,
+            ladders: Ladders::Both,
+            show_level_shifts: true,
         }
     }
 }
@@ -56,14 +115,32 @@ pub fn escape_xml(text: &str) -> String {
     out
 }
 
-pub(crate) fn number(value: f64) -> String {
-    let text = format!("{value:.2}");
-    let text = text.trim_end_matches('0').trim_end_matches('.');
-    if text == "-0" {
-        "0".into()
-    } else {
-        text.to_string()
+/// A coordinate with at most two decimals and no trailing zeros ("12.5", "-3", "0"),
+/// written straight into the output (no allocation; the writer runs per level and link).
+#[derive(Clone, Copy)]
+pub(crate) struct Number(f64);
+
+impl std::fmt::Display for Number {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        let hundredths = (self.0 * 100.0).round();
+        if !hundredths.is_finite() || hundredths == 0.0 {
+            return f.write_str("0");
+        }
+        let magnitude = hundredths.abs() as u64;
+        if hundredths < 0.0 {
+            f.write_str("-")?;
+        }
+        let (whole, fraction) = (magnitude / 100, magnitude % 100);
+        match fraction {
+            0 => write!(f, "{whole}"),
+            f10 if f10 % 10 == 0 => write!(f, "{whole}.{}", f10 / 10),
+            _ => write!(f, "{whole}.{fraction:02}"),
+        }
     }
+}
+
+pub(crate) fn number(value: f64) -> Number {
+    Number(value)
 }
 
 pub(crate) fn colour(rgb: [u8; 3], greyscale: bool) -> String {
@@ -73,6 +150,57 @@ pub(crate) fn colour(rgb: [u8; 3], greyscale: bool) -> String {
 
 const INK: [u8; 3] = [34, 34, 34];
 const FAINT: [u8; 3] = [130, 130, 130];
+
+/// One drawn correlation line.
+struct LinkStroke {
+    from: (f64, f64),
+    to: (f64, f64),
+    width: f64,
+    opacity: f64,
+}
+
+/// Width and opacity of a correlation line grow with its weight (our own scale).
+fn link_width(weight: f64) -> f64 {
+    0.8 + 4.0 * weight.clamp(0.0, 1.0)
+}
+
+fn link_opacity(weight: f64) -> f64 {
+    0.25 + 0.75 * weight.clamp(0.0, 1.0)
+}
+
+/// The links as strokes, with lines that share both ends (the members of an equivalent
+/// set all leave from the set's inner end) drawn once: as wide as the widest and as opaque
+/// as the stack, 1 − Π(1 − αᵢ), which is what n strokes of one colour composite to
+/// (Porter and Duff, Computer Graphics 18(3), 253 (1984), "over"). Same look, far fewer
+/// elements for large symmetric molecules (C60: about ten times fewer).
+fn merged_links(links: &[Link]) -> Vec<LinkStroke> {
+    let key = |link: &Link| {
+        [link.from.0, link.from.1, link.to.0, link.to.1].map(|v| (v * 100.0).round() as i64)
+    };
+    let mut strokes: Vec<LinkStroke> = Vec::new();
+    let mut index_of: std::collections::HashMap<[i64; 4], usize> =
+        std::collections::HashMap::with_capacity(links.len());
+    for link in links {
+        let (width, opacity) = (link_width(link.weight), link_opacity(link.weight));
+        match index_of.get(&key(link)) {
+            Some(&n) => {
+                let stroke = &mut strokes[n];
+                stroke.width = stroke.width.max(width);
+                stroke.opacity = 1.0 - (1.0 - stroke.opacity) * (1.0 - opacity);
+            }
+            None => {
+                index_of.insert(key(link), strokes.len());
+                strokes.push(LinkStroke {
+                    from: link.from,
+                    to: link.to,
+                    width,
+                    opacity,
+                });
+            }
+        }
+    }
+    strokes
+}
 
 /// Label text as `tspan` runs with baseline shifts that are undone after each run.
 pub(crate) fn label_markup(label: &str, font_size: f64) -> String {
@@ -101,7 +229,9 @@ pub(crate) fn label_markup(label: &str, font_size: f64) -> String {
 
 /// The diagram as a standalone SVG document.
 pub fn to_svg(diagram: &Diagram, options: &SvgOptions) -> String {
-    let mut svg = String::new();
+    // About 600 bytes per level and 130 per link; one allocation for most figures.
+    let levels: usize = diagram.ladders.iter().map(|l| l.levels.len()).sum();
+    let mut svg = String::with_capacity(4096 + 600 * levels + 130 * diagram.links.len());
     let font = escape_xml(&options.font_family);
     let ink = colour(INK, options.greyscale);
     let faint = colour(FAINT, options.greyscale);
@@ -109,22 +239,24 @@ pub fn to_svg(diagram: &Diagram, options: &SvgOptions) -> String {
     let _ = writeln!(
         svg,
         "<svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" width=\"{}\" height=\"{}\" viewBox=\"0 0 {} {}\" font-family=\"{font}\">",
-        number(options.width),
+        number(options.document_width(diagram)),
         number(options.height),
-        number(diagram.width),
+        number(options.view_width(diagram)),
         number(diagram.height)
     );
     let titles: Vec<String> = diagram
         .ladders
         .iter()
-        .map(|l| escape_xml(&l.title))
+        .enumerate()
+        .filter(|(index, _)| options.ladders.draws(*index))
+        .map(|(_, l)| escape_xml(&l.title))
         .collect();
     let _ = writeln!(svg, "<title>{}</title>", titles.join(" | "));
     if options.white_background {
         let _ = writeln!(
             svg,
             "<rect x=\"0\" y=\"0\" width=\"{}\" height=\"{}\" fill=\"#ffffff\"/>",
-            number(diagram.width),
+            number(options.view_width(diagram)),
             number(diagram.height)
         );
     }
@@ -160,26 +292,42 @@ pub fn to_svg(diagram: &Diagram, options: &SvgOptions) -> String {
         number(options.font_size * 0.9)
     );
     let _ = writeln!(svg, "</g>");
-    // Correlation lines.
+    // Correlation lines, only between two drawn ladders.
+    let links: &[Link] = if options.ladders == Ladders::Both {
+        &diagram.links
+    } else {
+        &[]
+    };
     let _ = writeln!(
         svg,
         "<g id=\"links\" stroke=\"{faint}\" stroke-linecap=\"round\">"
     );
-    for link in &diagram.links {
+    for stroke in merged_links(links) {
         let _ = writeln!(
             svg,
             "<line x1=\"{}\" y1=\"{}\" x2=\"{}\" y2=\"{}\" stroke-width=\"{}\" stroke-opacity=\"{}\"/>",
-            number(link.from.0),
-            number(link.from.1),
-            number(link.to.0),
-            number(link.to.1),
-            number(0.8 + 4.0 * link.weight.clamp(0.0, 1.0)),
-            number(0.25 + 0.75 * link.weight.clamp(0.0, 1.0))
+            number(stroke.from.0),
+            number(stroke.from.1),
+            number(stroke.to.0),
+            number(stroke.to.1),
+            number(stroke.width),
+            number(stroke.opacity)
         );
     }
     let _ = writeln!(svg, "</g>");
     for (index, ladder) in diagram.ladders.iter().enumerate() {
-        let _ = writeln!(svg, "<g id=\"ladder-{index}\">");
+        if !options.ladders.draws(index) {
+            continue;
+        }
+        if index == 1 && options.ladders == Ladders::LocalizedOnly {
+            let _ = writeln!(
+                svg,
+                "<g id=\"ladder-{index}\" transform=\"translate({} 0)\">",
+                number(-LOCALIZED_SHIFT)
+            );
+        } else {
+            let _ = writeln!(svg, "<g id=\"ladder-{index}\">");
+        }
         let _ = writeln!(
             svg,
             "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"middle\" fill=\"{ink}\">{}</text>",
@@ -221,7 +369,7 @@ fn write_level(
     );
     // Where the level goes with the lone-pair switch flipped: a faint dotted bar and an
     // arrow from here to there.
-    if let Some(shifted) = level.shifted_y {
+    if let Some(shifted) = level.shifted_y.filter(|_| options.show_level_shifts) {
         let _ = writeln!(
             svg,
             "<line x1=\"{}\" y1=\"{s}\" x2=\"{}\" y2=\"{s}\" stroke=\"{faint}\" stroke-width=\"1.5\" stroke-dasharray=\"2 3\"/><line x1=\"{x}\" y1=\"{}\" x2=\"{x}\" y2=\"{s}\" stroke=\"{faint}\" stroke-width=\"1\"/>",
@@ -362,6 +510,39 @@ mod tests {
         assert_eq!(a, b);
         assert!(a.contains("<tspan>3a</tspan><tspan dy="));
         assert!(a.contains("stroke-dasharray"), "virtual level dashed");
+    }
+
+    #[test]
+    fn coincident_links_are_drawn_once_as_opaque_as_their_stack() {
+        let link = |from_y: f64, weight: f64| Link {
+            localized_key: 0,
+            delocalized_group: 0,
+            weight,
+            from: (580.0, from_y),
+            to: (440.0, 300.0),
+        };
+        let strokes = merged_links(&[link(200.0, 0.4), link(200.0, 0.4), link(250.0, 0.4)]);
+        assert_eq!(strokes.len(), 2);
+        let single = link_opacity(0.4);
+        assert!((strokes[0].opacity - (1.0 - (1.0 - single).powi(2))).abs() < 1e-12);
+        assert!((strokes[1].opacity - single).abs() < 1e-12);
+        assert_eq!(strokes[0].width, link_width(0.4));
+    }
+
+    #[test]
+    fn numbers_have_two_decimals_at_most_and_no_negative_zero() {
+        let cases = [
+            (12.5, "12.5"),
+            (-3.0, "-3"),
+            (-0.001, "0"),
+            (0.126, "0.13"),
+            (588.0349, "588.03"),
+            (-16.457, "-16.46"),
+            (f64::NAN, "0"),
+        ];
+        for (value, text) in cases {
+            assert_eq!(number(value).to_string(), text, "{value}");
+        }
     }
 
     #[test]

@@ -363,7 +363,7 @@ pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
         let _ = writeln!(
             svg,
             "<g fill=\"{fill}\">{}</g>",
-            text.replace("{y}", &number(y))
+            text.replace("{y}", &number(y).to_string())
         );
     }
     let _ = writeln!(svg, "</g>");

@@ -1,0 +1,115 @@
+//! The JSON report of DESIGN §5.5 (`serde_json`); the keys are documented in the README.
+//! Atom indices are 0-based in file order.
+
+use serde::Serialize;
+
+use crate::analysis::{
+    Analysis, HybridEntry, LinkSummary, LocalizedSummary, OrbitalSummary, StageError,
+};
+
+#[derive(Serialize)]
+struct AtomEntry {
+    index: usize,
+    element: &'static str,
+    x: f64,
+    y: f64,
+    z: f64,
+}
+
+#[derive(Serialize)]
+struct BondEntry {
+    a: usize,
+    b: usize,
+    order: u8,
+    length: f64,
+}
+
+#[derive(Serialize)]
+struct MoleculeEntry {
+    name: String,
+    formula: String,
+    charge: i32,
+    electrons: usize,
+    atoms: Vec<AtomEntry>,
+    bonds: Vec<BondEntry>,
+}
+
+#[derive(Serialize)]
+struct JsonReport<'a> {
+    molecule: MoleculeEntry,
+    /// Schoenflies symbol ("C3v", "C∞v"); null if detection failed.
+    point_group: Option<String>,
+    symmetry: Option<&'a crate::symmetry::SymmetrySummary>,
+    electrons: usize,
+    orbitals: &'a [OrbitalSummary],
+    /// Mulliken charge per atom (null when the MO stage failed).
+    charges: Option<&'a [f64]>,
+    /// Σ occupancy × energy over the occupied orbitals (eV).
+    sum_occupied_energy_ev: Option<f64>,
+    open_shell: Option<bool>,
+    /// The lone-pair mixing switch (DESIGN §4.6) the orbitals were computed with.
+    lone_pair_mixing: bool,
+    /// Per orbital: its energy with the switch flipped minus its energy here (eV).
+    level_shifts: &'a [f64],
+    hybrids: &'a [HybridEntry],
+    localized: &'a [LocalizedSummary],
+    links: &'a [LinkSummary],
+    errors: &'a [StageError],
+}
+
+fn molecule_entry(analysis: &Analysis) -> MoleculeEntry {
+    let molecule = &analysis.molecule;
+    MoleculeEntry {
+        name: molecule.name.clone(),
+        formula: analysis.formula.clone(),
+        charge: molecule.charge,
+        electrons: analysis.electrons,
+        atoms: molecule
+            .atoms
+            .iter()
+            .enumerate()
+            .map(|(index, atom)| AtomEntry {
+                index,
+                element: atom.element.symbol(),
+                x: atom.position.x,
+                y: atom.position.y,
+                z: atom.position.z,
+            })
+            .collect(),
+        bonds: molecule
+            .bonds
+            .iter()
+            .map(|bond| BondEntry {
+                a: bond.a,
+                b: bond.b,
+                order: bond.order,
+                length: (molecule.atoms[bond.a].position - molecule.atoms[bond.b].position).norm(),
+            })
+            .collect(),
+    }
+}
+
+/// The analysis as a pretty-printed JSON document.
+pub fn to_json(analysis: &Analysis) -> String {
+    let report = JsonReport {
+        molecule: molecule_entry(analysis),
+        point_group: analysis
+            .symmetry
+            .as_ref()
+            .map(|found| found.group.to_string()),
+        symmetry: analysis.symmetry_summary.as_ref(),
+        electrons: analysis.electrons,
+        orbitals: &analysis.orbitals,
+        charges: analysis.eht.as_ref().map(|eht| eht.charges()),
+        sum_occupied_energy_ev: analysis.eht.as_ref().map(|eht| eht.sum_occupied_energy),
+        open_shell: analysis.eht.as_ref().map(|eht| eht.open_shell),
+        lone_pair_mixing: analysis.settings.lone_pair_mixing,
+        level_shifts: &analysis.level_shifts,
+        hybrids: &analysis.hybrid_entries,
+        localized: &analysis.localized,
+        links: &analysis.links,
+        errors: &analysis.errors,
+    };
+    serde_json::to_string_pretty(&report)
+        .unwrap_or_else(|error| format!("{{\"internal_error\": \"{error}\"}}"))
+}
