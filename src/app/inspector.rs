@@ -1,5 +1,6 @@
 //! The Inspector panel: the molecule's summary, then the selected orbital (energy, label,
-//! occupancy, composition by atom and AO) or, failing that, the selected atom.
+//! occupancy, composition by atom and AO, its orbital map) or, failing that, the selected
+//! atom.
 
 use diptych::analysis::Analysis;
 use diptych::diagram::build::LOCALIZED_KEY_OFFSET;
@@ -8,17 +9,30 @@ use eframe::egui;
 use diptych::diagram::style::{format_energy, lambda_text};
 
 use super::diagram_view::LevelRef;
+use super::menus::Dialogs;
 use super::molecule_panel;
+use super::orbital_map_view;
 use super::state::AppState;
+use diptych::orbital_map::OrbitalRef;
 
-pub fn show(ui: &mut egui::Ui, state: &mut AppState) {
+pub fn show(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
     molecule_panel::summary(ui, state);
     ui.separator();
-    if let (Some(level), Some(analysis)) = (state.selected_level, &state.analysis) {
-        if level.ladder == 0 {
-            canonical_orbital(ui, analysis, level);
+    if let (Some(level), Some(analysis)) = (state.selected_level, state.analysis.clone()) {
+        let orbital = if level.ladder == 0 {
+            canonical_orbital(ui, &analysis, level);
+            Some(OrbitalRef::Canonical(level.key))
         } else {
-            localized_orbital(ui, analysis, level);
+            localized_orbital(ui, &analysis, level);
+            level
+                .key
+                .checked_sub(LOCALIZED_KEY_OFFSET)
+                .map(OrbitalRef::Localized)
+        };
+        if let Some(orbital) = orbital
+            && orbital_map_view::show(ui, &mut state.map, &analysis, orbital)
+        {
+            dialogs.ask_export_map(state.project.molecule.name.clone());
         }
         ui.separator();
     }

@@ -12,7 +12,9 @@ use super::state::AppState;
 pub enum DialogAnswer {
     Open(PathBuf),
     SaveAs(PathBuf),
-    ExportSvg(PathBuf),
+    ExportDiagram(PathBuf),
+    ExportReport(PathBuf),
+    ExportMap(PathBuf),
     ExportWalshSvg(PathBuf),
     ExportWalshCsv(PathBuf),
 }
@@ -59,12 +61,44 @@ impl Dialogs {
         });
     }
 
-    pub fn ask_export_svg(&self, suggested: String) {
+    /// `extension` is "svg" or "png" (the format chosen in the export window).
+    pub fn ask_export_diagram(&self, suggested: String, extension: &'static str) {
+        let filter: (&'static str, &'static [&'static str]) = if extension == "png" {
+            ("PNG image", &["png"])
+        } else {
+            ("SVG image", &["svg"])
+        };
         self.ask_save(
-            "Export the diagram as SVG",
-            format!("{suggested}.svg"),
+            "Export the diagram",
+            format!("{suggested}.{extension}"),
+            filter,
+            DialogAnswer::ExportDiagram,
+        );
+    }
+
+    pub fn ask_export_report(&self, suggested: String) {
+        let sender = self.sender.clone();
+        std::thread::spawn(move || {
+            let picked = rfd::FileDialog::new()
+                .set_title("Export the report")
+                .set_file_name(format!("{suggested}-report.md"))
+                .add_filter("Markdown tables", &["md"])
+                .add_filter("CSV table", &["csv"])
+                .add_filter("JSON", &["json"])
+                .add_filter("Plain text", &["txt"])
+                .save_file();
+            if let Some(path) = picked {
+                let _ = sender.send(DialogAnswer::ExportReport(path));
+            }
+        });
+    }
+
+    pub fn ask_export_map(&self, suggested: String) {
+        self.ask_save(
+            "Export the orbital map as SVG",
+            format!("{suggested}-map.svg"),
             ("SVG image", &["svg"]),
-            DialogAnswer::ExportSvg,
+            DialogAnswer::ExportMap,
         );
     }
 
@@ -113,7 +147,9 @@ impl Dialogs {
             match answer {
                 DialogAnswer::Open(path) => state.request_open(path),
                 DialogAnswer::SaveAs(path) => state.save_to(path),
-                DialogAnswer::ExportSvg(path) => state.export_svg(path),
+                DialogAnswer::ExportDiagram(path) => state.export_diagram(path),
+                DialogAnswer::ExportReport(path) => state.export_report(path),
+                DialogAnswer::ExportMap(path) => state.export_map(path),
                 DialogAnswer::ExportWalshSvg(path) => state.export_walsh_svg(path),
                 DialogAnswer::ExportWalshCsv(path) => state.export_walsh_csv(path),
             }
@@ -137,7 +173,7 @@ pub fn handle_shortcuts(ui: &egui::Ui, state: &mut AppState, dialogs: &Dialogs) 
     let open = KeyboardShortcut::new(Modifiers::COMMAND, Key::O);
     let export = KeyboardShortcut::new(Modifiers::COMMAND, Key::E);
     if ui.input_mut(|input| input.consume_shortcut(&export)) {
-        dialogs.ask_export_svg(state.project.molecule.name.clone());
+        state.export.open = true;
     }
     // The longer shortcut is consumed first so that Ctrl+Shift+S is not read as Ctrl+S.
     if ui.input_mut(|input| input.consume_shortcut(&save_as)) {
@@ -205,11 +241,21 @@ pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
             if ui
                 .add_enabled(
                     state.diagram.is_some(),
-                    egui::Button::new("Export diagram as SVG…  (Ctrl+E)"),
+                    egui::Button::new("Export diagram…  (Ctrl+E)"),
                 )
                 .clicked()
             {
-                dialogs.ask_export_svg(state.project.molecule.name.clone());
+                state.export.open = true;
+                ui.close();
+            }
+            if ui
+                .add_enabled(
+                    state.analysis.is_some(),
+                    egui::Button::new("Export report…"),
+                )
+                .clicked()
+            {
+                dialogs.ask_export_report(state.project.molecule.name.clone());
                 ui.close();
             }
             let scanned = state.walsh.scan.is_some();

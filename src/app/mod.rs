@@ -3,11 +3,13 @@
 
 mod builder;
 mod diagram_view;
+mod export_window;
 mod frame_timer;
 mod history;
 mod inspector;
 mod menus;
 mod molecule_panel;
+mod orbital_map_view;
 mod parameter_editor;
 mod recovery;
 mod scan_job;
@@ -108,7 +110,8 @@ impl DiptychApp {
             .resizable(true)
             .show(ui, |ui| {
                 ui.heading("Inspector");
-                egui::ScrollArea::vertical().show(ui, |ui| inspector::show(ui, &mut self.state));
+                egui::ScrollArea::vertical()
+                    .show(ui, |ui| inspector::show(ui, &mut self.state, &self.dialogs));
             });
         egui::CentralPanel::default_margins().show(ui, |ui| self.diagram_panel(ui));
         let elements = parameter_editor::elements_of(&self.state.project.molecule);
@@ -119,6 +122,7 @@ impl DiptychApp {
             &elements,
         );
         walsh_view::show(ui.ctx(), &mut self.state, &self.dialogs);
+        export_window::show(ui.ctx(), &mut self.state, &self.dialogs);
         self.error_dialog(ui);
 
         let now = ui.input(|input| input.time);

@@ -72,6 +72,12 @@ pub struct AppState {
     navigated_history: bool,
     /// Recently opened or saved files, newest first (kept between sessions).
     pub recent_files: Vec<PathBuf>,
+    /// The Inspector's orbital map (plane choice, cached map).
+    pub map: super::orbital_map_view::MapPanel,
+    /// The export window's options and preview.
+    pub export: super::export_window::ExportPanel,
+    /// Counts diagram rebuilds (the export preview redraws when it changes).
+    pub diagram_revision: u64,
     /// The Walsh scan window: form, running scan, last result.
     pub walsh: super::walsh_view::WalshPanel,
     /// The debug overlay's frame-time counter (View menu).
@@ -134,6 +140,9 @@ impl AppState {
             settings_open: false,
             navigated_history: false,
             recent_files: Vec::new(),
+            map: Default::default(),
+            export: Default::default(),
+            diagram_revision: 0,
             walsh: Default::default(),
             frame_timer: Default::default(),
             status,
@@ -272,6 +281,7 @@ impl AppState {
 
     /// Lays the diagram out again (after a new analysis, or new titles or threshold).
     pub fn rebuild_diagram(&mut self) {
+        self.diagram_revision += 1;
         let options = DiagramOptions {
             titles: self.project.titles.clone(),
             link_threshold: self.project.view.link_threshold,
@@ -383,18 +393,59 @@ impl AppState {
         }
     }
 
-    /// Writes the diagram on screen as a standalone SVG file (atomically).
-    pub fn export_svg(&mut self, path: PathBuf) {
+    /// Writes the diagram on screen with the export window's options, as SVG or PNG by
+    /// the file's extension (atomically).
+    pub fn export_diagram(&mut self, path: PathBuf) {
         let Some(diagram) = &self.diagram else {
             self.error_dialog = Some("There is no diagram to export yet.".into());
             return;
         };
-        let options = diptych::diagram::SvgOptions {
-            show_energies: self.project.view.show_energies,
-            ..Default::default()
+        let extension = path
+            .extension()
+            .and_then(|e| e.to_str())
+            .map(str::to_ascii_lowercase);
+        let panel_format = match extension.as_deref() {
+            Some("svg") => super::export_window::ExportFormat::Svg,
+            Some("png") => super::export_window::ExportFormat::Png,
+            _ => {
+                self.error_dialog = Some(format!(
+                    "Could not export the diagram.\n\n{}: the name must end in .svg or .png",
+                    path.display()
+                ));
+                return;
+            }
         };
-        let svg = diptych::diagram::to_svg(diagram, &options);
-        self.write_export(&path, svg.as_bytes(), "the diagram");
+        let previous = std::mem::replace(&mut self.export.format, panel_format);
+        let rendered = self.export.render(diagram, self.project.view.show_energies);
+        self.export.format = previous;
+        match rendered {
+            Ok(bytes) => self.write_export(&path, &bytes, "the diagram"),
+            Err(message) => {
+                self.error_dialog = Some(format!("Could not export the diagram.\n\n{message}"))
+            }
+        }
+    }
+
+    /// Writes the report tables of the current analysis; the format follows the extension
+    /// (.md, .csv, .json, .txt).
+    pub fn export_report(&mut self, path: PathBuf) {
+        let Some(analysis) = self.analysis.clone() else {
+            self.error_dialog = Some("There is no analysis to report yet.".into());
+            return;
+        };
+        let format = path
+            .extension()
+            .and_then(|e| e.to_str())
+            .and_then(diptych::report::ReportFormat::from_extension);
+        let Some(format) = format else {
+            self.error_dialog = Some(format!(
+                "Could not export the report.\n\n{}: the name must end in .md, .csv, .json or .txt",
+                path.display()
+            ));
+            return;
+        };
+        let text = diptych::report::render(&analysis, format);
+        self.write_export(&path, text.as_bytes(), "the report");
     }
 
     /// Puts `path` first in the recent-files list (no duplicates, at most `MAX_RECENT`).
@@ -403,6 +454,16 @@ impl AppState {
         self.recent_files.retain(|known| *known != path);
         self.recent_files.insert(0, path);
         self.recent_files.truncate(MAX_RECENT);
+    }
+
+    /// Writes the orbital map shown in the Inspector as SVG (the library's writer).
+    pub fn export_map(&mut self, path: PathBuf) {
+        let Some(map) = self.map.current() else {
+            self.error_dialog = Some("There is no orbital map to export yet.".into());
+            return;
+        };
+        let svg = super::orbital_map_view::svg_of(&map);
+        self.write_export(&path, svg.as_bytes(), "the orbital map");
     }
 
     /// Writes the last Walsh scan as an SVG plot (our writer), atomically.

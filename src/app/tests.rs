@@ -346,7 +346,7 @@ fn exporting_writes_the_diagram_on_screen_as_svg() {
     let path = folder.path().join("nh3.svg");
     harness.state_mut().state.project.titles.localized = "Bonds & <lone> pairs".into();
     harness.state_mut().state.rebuild_diagram();
-    harness.state_mut().state.export_svg(path.clone());
+    harness.state_mut().state.export_diagram(path.clone());
     let svg = std::fs::read_to_string(&path).unwrap();
     assert!(svg.starts_with("<?xml"));
     assert!(svg.contains("Bonds &amp; &lt;lone&gt; pairs"));
@@ -358,7 +358,7 @@ fn exporting_writes_the_diagram_on_screen_as_svg() {
     harness
         .state_mut()
         .state
-        .export_svg(folder.path().join("no/such/folder/x.svg"));
+        .export_diagram(folder.path().join("no/such/folder/x.svg"));
     assert!(harness.state().state.error_dialog.is_some());
 }
 

@@ -52,13 +52,13 @@ impl Coordinate {
             Coordinate::Angle { i, j, k } => format!("angle {i}–{j}–{k}"),
             Coordinate::Dihedral { i, j, k, l } => format!("dihedral {i}–{j}–{k}–{l}"),
             Coordinate::Pyramidalize { centre } => {
-                format!("pyramidalization, X–A–X at atom {centre}")
+                format!("pyramidalization X–A–X at atom {centre}")
             }
             Coordinate::SymmetricBend { centre } => {
-                format!("symmetric bend, X–A–X at atom {centre}")
+                format!("symmetric bend X–A–X at atom {centre}")
             }
             Coordinate::SymmetricStretch { centre } => {
-                format!("symmetric stretch, A–X at atom {centre}")
+                format!("symmetric stretch A–X at atom {centre}")
             }
         };
         format!("{text} ({})", self.unit())

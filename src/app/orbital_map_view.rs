@@ -1,0 +1,287 @@
+//! The Inspector's orbital map (DESIGN §2): the selected canonical or localized orbital on
+//! a plane, as contour lines from the library's `orbital_map` (STO basis values, marching
+//! squares), positive and negative lobes in two colours, the nodal line, atoms and bonds
+//! projected onto the plane. The map is computed on a background thread and cached per
+//! (analysis, orbital, plane); the painter only draws the finished lines.
+
+use std::sync::Arc;
+use std::sync::mpsc::{Receiver, channel};
+
+use diptych::analysis::Analysis;
+use diptych::orbital_map::{
+    MapOptions, OrbitalMap, OrbitalRef, Plane, compute_map, default_plane, map_to_svg,
+};
+use eframe::egui::{self, Align2, Color32, FontId, Pos2, Sense, Stroke, Vec2};
+
+use super::theme::element_colour;
+
+/// Positive lobes: a deep blue; negative lobes: a burnt orange (our own pair, chosen to
+/// stay distinct in greyscale print and for red–green colour blindness).
+const POSITIVE: Color32 = Color32::from_rgb(30, 90, 170);
+const NEGATIVE: Color32 = Color32::from_rgb(200, 100, 20);
+
+/// Points per side of the on-screen map (a coarser grid than an export's; enough for a
+/// panel a few hundred pixels wide).
+const SCREEN_GRID: usize = 120;
+
+/// Which plane the map lies in.
+#[derive(Clone, Copy, Debug, PartialEq, Eq)]
+pub enum PlaneChoice {
+    /// The plane that holds most of the orbital (the library's default).
+    Automatic,
+    /// Through three atoms.
+    Atoms([usize; 3]),
+}
+
+/// What a map was made for: the analysis (by address), the orbital and the plane.
+#[derive(Clone, Debug, PartialEq)]
+struct MapKey {
+    analysis: usize,
+    orbital: OrbitalRef,
+    plane: PlaneChoice,
+}
+
+/// The Inspector's map state.
+pub struct MapPanel {
+    pub plane: PlaneChoice,
+    shown: Option<(MapKey, Result<Arc<OrbitalMap>, String>)>,
+    pending: Option<(MapKey, Receiver<Result<OrbitalMap, String>>)>,
+}
+
+impl Default for MapPanel {
+    fn default() -> Self {
+        MapPanel {
+            plane: PlaneChoice::Automatic,
+            shown: None,
+            pending: None,
+        }
+    }
+}
+
+impl MapPanel {
+    /// The finished map of the orbital now shown, if any.
+    pub fn current(&self) -> Option<Arc<OrbitalMap>> {
+        self.shown
+            .as_ref()
+            .and_then(|(_, result)| result.as_ref().ok().cloned())
+    }
+
+    /// Starts computing `orbital`'s map unless it is shown or under way.
+    fn request(&mut self, context: &egui::Context, analysis: &Arc<Analysis>, orbital: OrbitalRef) {
+        let key = MapKey {
+            analysis: Arc::as_ptr(analysis) as usize,
+            orbital,
+            plane: self.plane,
+        };
+        if self.shown.as_ref().is_some_and(|(shown, _)| *shown == key)
+            || self
+                .pending
+                .as_ref()
+                .is_some_and(|(pending, _)| *pending == key)
+        {
+            return;
+        }
+        let (sender, receiver) = channel();
+        let analysis = Arc::clone(analysis);
+        let plane_choice = self.plane;
+        let context = context.clone();
+        let spawned = std::thread::Builder::new()
+            .name("orbital map".into())
+            .spawn(move || {
+                let result = map_for(&analysis, orbital, plane_choice);
+                let _ = sender.send(result);
+                context.request_repaint();
+            });
+        match spawned {
+            Ok(_) => self.pending = Some((key, receiver)),
+            Err(error) => self.shown = Some((key, Err(format!("cannot start: {error}")))),
+        }
+    }
+
+    /// Takes a finished map from the background thread.
+    fn poll(&mut self) {
+        let Some((_, receiver)) = &self.pending else {
+            return;
+        };
+        if let Ok(result) = receiver.try_recv() {
+            if let Some((key, _)) = self.pending.take() {
+                self.shown = Some((key, result.map(Arc::new)));
+            }
+        }
+    }
+}
+
+/// The library call, off the UI thread.
+fn map_for(
+    analysis: &Analysis,
+    orbital: OrbitalRef,
+    choice: PlaneChoice,
+) -> Result<OrbitalMap, String> {
+    let plane = match choice {
+        PlaneChoice::Automatic => default_plane(analysis, orbital),
+        PlaneChoice::Atoms(atoms) => Plane::through_atoms(&analysis.molecule, atoms),
+    }
+    .map_err(|error| error.to_string())?;
+    let options = MapOptions {
+        points: SCREEN_GRID,
+        ..MapOptions::default()
+    };
+    compute_map(analysis, orbital, &plane, &options).map_err(|error| error.to_string())
+}
+
+/// The map section of the Inspector for `orbital`; returns true when the user asks to
+/// export it as SVG.
+pub fn show(
+    ui: &mut egui::Ui,
+    panel: &mut MapPanel,
+    analysis: &Arc<Analysis>,
+    orbital: OrbitalRef,
+) -> bool {
+    panel.poll();
+    panel.request(ui.ctx(), analysis, orbital);
+    let mut export = false;
+    egui::CollapsingHeader::new("Orbital map")
+        .default_open(true)
+        .show(ui, |ui| {
+            plane_form(ui, panel, analysis.molecule.len());
+            let key_matches = panel.shown.as_ref().is_some_and(|(key, _)| {
+                key.orbital == orbital
+                    && key.plane == panel.plane
+                    && key.analysis == Arc::as_ptr(analysis) as usize
+            });
+            match &panel.shown {
+                Some((_, Ok(map))) if key_matches => {
+                    draw(ui, map);
+                    ui.horizontal(|ui| {
+                        ui.weak("ψ > 0");
+                        ui.colored_label(POSITIVE, "━");
+                        ui.weak("ψ < 0");
+                        ui.colored_label(NEGATIVE, "━");
+                        if ui.button("Export map SVG…").clicked() {
+                            export = true;
+                        }
+                    });
+                }
+                Some((_, Err(message))) if key_matches => {
+                    ui.colored_label(ui.visuals().error_fg_color, message);
+                }
+                _ => {
+                    ui.horizontal(|ui| {
+                        ui.spinner();
+                        ui.weak("Computing the map…");
+                    });
+                }
+            }
+        });
+    export
+}
+
+fn plane_form(ui: &mut egui::Ui, panel: &mut MapPanel, atom_count: usize) {
+    ui.horizontal_wrapped(|ui| {
+        let mut automatic = panel.plane == PlaneChoice::Automatic;
+        if ui
+            .radio(automatic, "best plane")
+            .on_hover_text("The plane that holds most of the orbital")
+            .clicked()
+        {
+            automatic = true;
+            panel.plane = PlaneChoice::Automatic;
+        }
+        if ui.radio(!automatic, "through atoms").clicked() && automatic {
+            panel.plane = PlaneChoice::Atoms([0, 1, 2.min(atom_count.saturating_sub(1))]);
+        }
+        if let PlaneChoice::Atoms(mut atoms) = panel.plane {
+            let last = atom_count.saturating_sub(1);
+            for (slot, name) in ["I", "J", "K"].iter().enumerate() {
+                let label = ui.label(*name);
+                ui.add(egui::DragValue::new(&mut atoms[slot]).range(0..=last))
+                    .labelled_by(label.id);
+            }
+            panel.plane = PlaneChoice::Atoms(atoms);
+        }
+    });
+}
+
+/// Paints the contours, nodal line, bonds and atoms into a square.
+fn draw(ui: &mut egui::Ui, map: &OrbitalMap) {
+    let side = ui.available_width().clamp(160.0, 420.0);
+    let (response, painter) = ui.allocate_painter(Vec2::splat(side), Sense::hover());
+    let rect = response.rect;
+    painter.rect_filled(rect, 2.0, ui.visuals().extreme_bg_color);
+    let spec = &map.grid.spec;
+    let extent = spec.side().max(1e-9);
+    let to_screen = |x: f64, y: f64| -> Pos2 {
+        let fx = ((x - spec.x0) / extent) as f32;
+        let fy = ((y - spec.y0) / extent) as f32;
+        // Plane y grows upwards, screen y downwards.
+        Pos2::new(
+            rect.left() + fx * rect.width(),
+            rect.bottom() - fy * rect.height(),
+        )
+    };
+    let clip = painter.with_clip_rect(rect);
+    for line in &map.nodal {
+        let points: Vec<Pos2> = line.points.iter().map(|p| to_screen(p[0], p[1])).collect();
+        clip.add(egui::Shape::dashed_line(
+            &points,
+            Stroke::new(1.0, Color32::GRAY),
+            3.0,
+            3.0,
+        ));
+    }
+    for line in &map.contours {
+        let colour = if line.level > 0.0 { POSITIVE } else { NEGATIVE };
+        let points: Vec<Pos2> = line.points.iter().map(|p| to_screen(p[0], p[1])).collect();
+        clip.add(egui::Shape::line(points, Stroke::new(1.2, colour)));
+    }
+    let ink = ui.visuals().text_color();
+    for &(a, b) in &map.bonds {
+        let (Some(first), Some(second)) = (
+            map.atoms.iter().find(|atom| atom.index == a),
+            map.atoms.iter().find(|atom| atom.index == b),
+        ) else {
+            continue;
+        };
+        clip.line_segment(
+            [to_screen(first.x, first.y), to_screen(second.x, second.y)],
+            Stroke::new(1.5, ink.gamma_multiply(0.5)),
+        );
+    }
+    for atom in &map.atoms {
+        let centre = to_screen(atom.x, atom.y);
+        if !rect.contains(centre) {
+            continue;
+        }
+        let colour =
+            diptych::chem::Element::from_symbol(&atom.symbol).map_or(Color32::GRAY, element_colour);
+        let radius = if atom.in_plane() { 5.0 } else { 3.5 };
+        clip.circle_filled(centre, radius, colour);
+        clip.circle_stroke(centre, radius, Stroke::new(1.0, ink));
+        clip.text(
+            centre + Vec2::new(6.0, -6.0),
+            Align2::LEFT_BOTTOM,
+            format!("{}{}", atom.symbol, atom.index),
+            FontId::proportional(11.0),
+            ink,
+        );
+    }
+    // A 1 Å scale bar in the lower left corner.
+    let one_angstrom = rect.width() / extent as f32;
+    let start = Pos2::new(rect.left() + 8.0, rect.bottom() - 10.0);
+    clip.line_segment(
+        [start, start + Vec2::new(one_angstrom, 0.0)],
+        Stroke::new(2.0, ink),
+    );
+    clip.text(
+        start + Vec2::new(one_angstrom + 4.0, 0.0),
+        Align2::LEFT_CENTER,
+        "1 Å",
+        FontId::proportional(11.0),
+        ink,
+    );
+}
+
+/// The map as an SVG document (the library's writer).
+pub fn svg_of(map: &OrbitalMap) -> String {
+    map_to_svg(map, &diptych::orbital_map::MapSvgOptions::default())
+}
