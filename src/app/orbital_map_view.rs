@@ -103,10 +103,10 @@ impl MapPanel {
         let Some((_, receiver)) = &self.pending else {
             return;
         };
-        if let Ok(result) = receiver.try_recv() {
-            if let Some((key, _)) = self.pending.take() {
-                self.shown = Some((key, result.map(Arc::new)));
-            }
+        if let Ok(result) = receiver.try_recv()
+            && let Some((key, _)) = self.pending.take()
+        {
+            self.shown = Some((key, result.map(Arc::new)));
         }
     }
 }
@@ -153,10 +153,9 @@ pub fn show(
                 Some((_, Ok(map))) if key_matches => {
                     draw(ui, map);
                     ui.horizontal(|ui| {
-                        ui.weak("ψ > 0");
-                        ui.colored_label(POSITIVE, "━");
-                        ui.weak("ψ < 0");
-                        ui.colored_label(NEGATIVE, "━");
+                        ui.colored_label(POSITIVE, "positive");
+                        ui.colored_label(NEGATIVE, "negative");
+                        ui.weak("dashed: node");
                         if ui.button("Export map SVG…").clicked() {
                             export = true;
                         }

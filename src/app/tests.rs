@@ -711,3 +711,95 @@ fn a_bad_walsh_coordinate_is_refused_before_any_work() {
     assert!(error.contains("neighbours"), "{error}");
     harness.get_by_label_contains("neighbours");
 }
+
+#[test]
+fn the_export_window_previews_and_writes_svg_and_png() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    harness.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::E);
+    harness.run_steps(3);
+    harness.get_by_label("Export diagram");
+    harness.get_by_label("Export preview");
+    harness.get_by_label("PNG (image)").click();
+    harness.run_steps(2);
+    harness.get_by_label("Export PNG…");
+    let folder = tempfile::tempdir().unwrap();
+    harness.state_mut().state.export.dpi = 48.0;
+    let png_path = folder.path().join("nh3.png");
+    harness.state_mut().state.export_diagram(png_path.clone());
+    let bytes = std::fs::read(&png_path).expect("PNG written");
+    assert_eq!(&bytes[1..4], b"PNG");
+    // 1000 × 700 CSS pixels at 48 dpi (half of 96): 500 × 350 pixels (IHDR width, height).
+    let width = u32::from_be_bytes([bytes[16], bytes[17], bytes[18], bytes[19]]);
+    let height = u32::from_be_bytes([bytes[20], bytes[21], bytes[22], bytes[23]]);
+    assert_eq!((width, height), (500, 350));
+    // An empty title is refused with a message and nothing is written.
+    harness.state_mut().state.project.titles.delocalized = "  ".into();
+    harness.state_mut().state.rebuild_diagram();
+    harness.run_steps(2);
+    harness.get_by_label_contains("title of the delocalized ladder is empty");
+    let refused = folder.path().join("untitled.svg");
+    harness.state_mut().state.export_diagram(refused.clone());
+    assert!(!refused.exists());
+    assert!(harness.state().state.error_dialog.is_some());
+}
+
+#[test]
+fn a_report_is_written_in_the_format_of_its_extension() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    let folder = tempfile::tempdir().unwrap();
+    let markdown = folder.path().join("nh3.md");
+    harness.state_mut().state.export_report(markdown.clone());
+    let text = std::fs::read_to_string(&markdown).expect("report written");
+    assert!(text.contains("| ") && text.contains("3a"), "{text}");
+    let json = folder.path().join("nh3.json");
+    harness.state_mut().state.export_report(json.clone());
+    let value: serde_json::Value =
+        serde_json::from_str(&std::fs::read_to_string(&json).unwrap()).expect("JSON");
+    assert_eq!(value["electrons"], 8);
+    let unknown = folder.path().join("nh3.docx");
+    harness.state_mut().state.export_report(unknown.clone());
+    assert!(!unknown.exists());
+    assert!(harness.state().state.error_dialog.is_some());
+}
+
+#[test]
+fn a_selected_level_shows_its_orbital_map() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    harness.state_mut().state.selected_level = Some(LevelRef { ladder: 0, key: 3 });
+    let start = Instant::now();
+    while harness.state().state.map.current().is_none() {
+        harness.step();
+        assert!(start.elapsed() < Duration::from_secs(30), "map arrives");
+        std::thread::sleep(Duration::from_millis(5));
+    }
+    harness.run_steps(2);
+    harness.get_by_label("Export map SVG…");
+    let map = harness.state().state.map.current().expect("map");
+    // The lone pair has lobes of both signs (a p-rich hybrid) and a nodal line.
+    assert!(map.contours.iter().any(|line| line.level > 0.0));
+    assert!(map.contours.iter().any(|line| line.level < 0.0));
+    let folder = tempfile::tempdir().unwrap();
+    let path = folder.path().join("map.svg");
+    harness.state_mut().state.export_map(path.clone());
+    let svg = std::fs::read_to_string(&path).expect("map SVG");
+    assert!(svg.starts_with("<?xml") && svg.contains("<path"));
+    // Another plane: through the three hydrogens (the lone pair's nodal region).
+    harness.state_mut().state.map.plane = super::orbital_map_view::PlaneChoice::Atoms([1, 2, 3]);
+    harness.run_steps(1);
+    let start = Instant::now();
+    loop {
+        harness.step();
+        let current = harness.state().state.map.current();
+        if current.is_some_and(|m| m.plane != map.plane) {
+            break;
+        }
+        assert!(
+            start.elapsed() < Duration::from_secs(30),
+            "new plane's map arrives"
+        );
+        std::thread::sleep(Duration::from_millis(5));
+    }
+}
