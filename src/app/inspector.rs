@@ -23,11 +23,23 @@ pub fn show(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
             canonical_orbital(ui, &analysis, level);
             Some(OrbitalRef::Canonical(level.key))
         } else {
-            localized_orbital(ui, &analysis, level);
-            level
+            let shown_hybrid = state
+                .map
+                .hybrid
+                .filter(|(focused, _)| *focused == level)
+                .map(|(_, index)| index);
+            if let Some(choice) = localized_orbital(ui, &analysis, level, shown_hybrid) {
+                state.map.hybrid = choice.map(|index| (level, index));
+            }
+            let hybrid = state
+                .map
+                .hybrid
+                .filter(|(focused, _)| *focused == level)
+                .map(|(_, index)| OrbitalRef::Hybrid(index));
+            hybrid.or(level
                 .key
                 .checked_sub(LOCALIZED_KEY_OFFSET)
-                .map(OrbitalRef::Localized)
+                .map(OrbitalRef::Localized))
         };
         if let Some(orbital) = orbital
             && orbital_map_view::show(ui, &mut state.map, &analysis, orbital)
@@ -90,14 +102,19 @@ fn canonical_orbital(ui: &mut egui::Ui, analysis: &Analysis, level: LevelRef) {
         });
 }
 
-fn localized_orbital(ui: &mut egui::Ui, analysis: &Analysis, level: LevelRef) {
-    let Some(orbital) = level
+/// The localized orbital's facts, constituents and hybrids. Returns the user's choice of
+/// map: `Some(Some(i))` to map hybrid `i`, `Some(None)` to map the orbital itself again.
+fn localized_orbital(
+    ui: &mut egui::Ui,
+    analysis: &Analysis,
+    level: LevelRef,
+    shown_hybrid: Option<usize>,
+) -> Option<Option<usize>> {
+    let orbital = level
         .key
         .checked_sub(LOCALIZED_KEY_OFFSET)
-        .and_then(|n| analysis.localized.get(n))
-    else {
-        return;
-    };
+        .and_then(|n| analysis.localized.get(n))?;
+    let mut choice = None;
     let index = level.key - LOCALIZED_KEY_OFFSET;
     let atom_name = |atom: usize| format!("{}{atom}", analysis.molecule.atoms[atom].element);
     let atoms: Vec<String> = orbital.atoms.iter().map(|&a| atom_name(a)).collect();
@@ -144,17 +161,18 @@ fn localized_orbital(ui: &mut egui::Ui, analysis: &Analysis, level: LevelRef) {
     ui.add_space(4.0);
     ui.strong("Hybrids");
     egui::Grid::new("hybrids of orbital")
-        .num_columns(4)
+        .num_columns(5)
         .striped(true)
         .show(ui, |ui| {
-            for entry in analysis.hybrid_entries.iter().filter(|h| {
+            let members = analysis.hybrid_entries.iter().enumerate().filter(|(_, h)| {
                 orbital.atoms.contains(&h.center)
                     && match orbital.atoms.as_slice() {
                         [_] => h.partner.is_none(),
                         [a, b] => h.partner == Some(if h.center == *a { *b } else { *a }),
                         _ => false,
                     }
-            }) {
+            });
+            for (index, entry) in members {
                 ui.label(atom_name(entry.center));
                 ui.label(lambda_text(entry.lambda));
                 ui.label(format!("{:.0} % s", entry.s_percent));
@@ -163,7 +181,16 @@ fn localized_orbital(ui: &mut egui::Ui, analysis: &Analysis, level: LevelRef) {
                         .bending_degrees
                         .map_or(String::new(), |b| format!("bent {b:.1}°")),
                 );
+                let mapped = shown_hybrid == Some(index);
+                if ui
+                    .selectable_label(mapped, format!("map {}", atom_name(entry.center)))
+                    .on_hover_text("Show this hybrid in the orbital map")
+                    .clicked()
+                {
+                    choice = Some(if mapped { None } else { Some(index) });
+                }
                 ui.end_row();
             }
         });
+    choice
 }

@@ -258,6 +258,16 @@ pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
                 dialogs.ask_export_report(state.project.molecule.name.clone());
                 ui.close();
             }
+            if ui
+                .add_enabled(
+                    state.map.current().is_some(),
+                    egui::Button::new("Export orbital map as SVG…"),
+                )
+                .clicked()
+            {
+                dialogs.ask_export_map(state.project.molecule.name.clone());
+                ui.close();
+            }
             let scanned = state.walsh.scan.is_some();
             if ui
                 .add_enabled(scanned, egui::Button::new("Export Walsh diagram as SVG…"))
@@ -293,6 +303,17 @@ pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
                 .clicked()
             {
                 state.redo();
+                ui.close();
+            }
+            ui.separator();
+            if ui
+                .add_enabled(
+                    state.can_symmetrize(),
+                    egui::Button::new("Symmetrize geometry"),
+                )
+                .clicked()
+            {
+                state.symmetrize();
                 ui.close();
             }
         });

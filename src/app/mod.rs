@@ -192,24 +192,14 @@ impl DiptychApp {
                 "Point group within {} Å (Settings, Method options)",
                 self.state.project.settings.symmetry.tolerance
             ));
-        let symmetrized = analysis.symmetrized.clone();
-        // Worth offering only when some atom would move noticeably (beyond rounding).
-        let needed = symmetrized.as_ref().is_some_and(|ideal| {
-            ideal
-                .atoms
-                .iter()
-                .zip(&self.state.project.molecule.atoms)
-                .any(|(a, b)| (a.position - b.position).norm() > 1e-7)
-        });
         if ui
-            .add_enabled(needed, egui::Button::new("Symmetrize"))
+            .add_enabled(self.state.can_symmetrize(), egui::Button::new("Symmetrize"))
             .on_hover_text(
                 "Average the geometry over the point group so that it is exactly symmetric",
             )
             .clicked()
-            && let Some(ideal) = symmetrized
         {
-            self.state.project.molecule.atoms = ideal.atoms;
+            self.state.symmetrize();
         }
     }
 

@@ -44,6 +44,9 @@ struct MapKey {
 /// The Inspector's map state.
 pub struct MapPanel {
     pub plane: PlaneChoice,
+    /// A hybrid of the selected localized orbital shown instead of the orbital itself
+    /// (the level it belongs to, its index in `hybrid_entries`).
+    pub hybrid: Option<(super::diagram_view::LevelRef, usize)>,
     shown: Option<(MapKey, Result<Arc<OrbitalMap>, String>)>,
     pending: Option<(MapKey, Receiver<Result<OrbitalMap, String>>)>,
 }
@@ -52,6 +55,7 @@ impl Default for MapPanel {
     fn default() -> Self {
         MapPanel {
             plane: PlaneChoice::Automatic,
+            hybrid: None,
             shown: None,
             pending: None,
         }
@@ -151,6 +155,7 @@ pub fn show(
             });
             match &panel.shown {
                 Some((_, Ok(map))) if key_matches => {
+                    ui.label(super::theme::screen_label(&map.orbital.label));
                     draw(ui, map);
                     ui.horizontal(|ui| {
                         ui.colored_label(POSITIVE, "positive");

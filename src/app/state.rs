@@ -448,6 +448,38 @@ impl AppState {
         self.write_export(&path, text.as_bytes(), "the report");
     }
 
+    /// Whether Symmetrize would move some atom noticeably (beyond rounding).
+    pub fn can_symmetrize(&self) -> bool {
+        self.analysis
+            .as_ref()
+            .and_then(|analysis| analysis.symmetrized.as_ref())
+            .is_some_and(|ideal| {
+                ideal
+                    .atoms
+                    .iter()
+                    .zip(&self.project.molecule.atoms)
+                    .any(|(a, b)| (a.position - b.position).norm() > 1e-7)
+            })
+    }
+
+    /// Replaces the geometry by the analysis's point-group average (an ordinary edit,
+    /// undoable through the frame's history diff).
+    pub fn symmetrize(&mut self) {
+        if !self.can_symmetrize() {
+            return;
+        }
+        if let Some(ideal) = self
+            .analysis
+            .as_ref()
+            .and_then(|analysis| analysis.symmetrized.clone())
+            && ideal.atoms.len() == self.project.molecule.atoms.len()
+        {
+            for (atom, placed) in self.project.molecule.atoms.iter_mut().zip(ideal.atoms) {
+                atom.position = placed.position;
+            }
+        }
+    }
+
     /// Puts `path` first in the recent-files list (no duplicates, at most `MAX_RECENT`).
     pub fn remember_recent(&mut self, path: &std::path::Path) {
         let path = std::fs::canonicalize(path).unwrap_or_else(|_| path.to_path_buf());

@@ -803,3 +803,48 @@ fn a_selected_level_shows_its_orbital_map() {
         std::thread::sleep(Duration::from_millis(5));
     }
 }
+
+#[test]
+fn a_hybrid_of_a_bond_can_be_mapped_and_edit_menu_symmetrizes() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    // The first localized level: a σ(N–H) bond.
+    harness.state_mut().state.selected_level = Some(LevelRef {
+        ladder: 1,
+        key: diptych::diagram::build::LOCALIZED_KEY_OFFSET,
+    });
+    harness.run_steps(2);
+    harness.get_by_label("map N0").click();
+    let start = Instant::now();
+    loop {
+        harness.step();
+        let map = harness.state().state.map.current();
+        if map.is_some_and(|m| {
+            matches!(
+                m.orbital.reference,
+                Some(diptych::orbital_map::OrbitalRef::Hybrid(_))
+            )
+        }) {
+            break;
+        }
+        assert!(
+            start.elapsed() < Duration::from_secs(30),
+            "hybrid map arrives"
+        );
+        std::thread::sleep(Duration::from_millis(5));
+    }
+    // Edit ▸ Symmetrize is offered only when the geometry is not already exact.
+    {
+        let state = &mut harness.state_mut().state;
+        state.project.molecule.atoms[1].position.x += 0.003;
+        state.document_changed();
+    }
+    wait_for_analysis(&mut harness);
+    assert!(harness.state().state.can_symmetrize());
+    harness.get_by_label("Edit").click();
+    harness.run_steps(2);
+    harness.get_by_label("Symmetrize geometry").click();
+    harness.run_steps(2);
+    wait_for_analysis(&mut harness);
+    assert!(!harness.state().state.can_symmetrize());
+}

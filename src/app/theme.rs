@@ -65,8 +65,9 @@ pub fn level_colour(label: &str, ink: Color32) -> Color32 {
     diptych::diagram::style::level_rgb(label).map_or(ink, |[r, g, b]| Color32::from_rgb(r, g, b))
 }
 
-/// A label as the screen shows it: egui's built-in font has no typographic primes, so
-/// ASCII ones keep labels such as 1a2″ legible everywhere (the SVG writer keeps ′ and ″).
+/// A label as the screen shows it: egui's built-in font has no typographic primes or
+/// arrows, so ASCII ones keep labels such as 1a2″ legible everywhere (the SVG writer keeps
+/// ′, ″ and →).
 pub fn screen_label(text: &str) -> String {
-    text.replace('″', "''").replace('′', "'")
+    text.replace('″', "''").replace('′', "'").replace('→', "->")
 }

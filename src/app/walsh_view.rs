@@ -548,7 +548,7 @@ pub fn take_point_geometry(state: &mut AppState, scan: &Scan, index: usize) {
 /// (ammonia's 3a1 becomes 1a2″ when planar).
 fn end_label(curve: &diptych::scan::Curve) -> String {
     match curve.labels.last().cloned().flatten() {
-        Some(last) if last != curve.label => screen_label(&format!("{} -> {last}", curve.label)),
+        Some(last) if last != curve.label => screen_label(&format!("{} → {last}", curve.label)),
         _ => screen_label(&curve.label),
     }
 }
