@@ -243,13 +243,17 @@ fn draw_level(
         } else {
             Align2::RIGHT_BOTTOM
         };
-        painter.text(
-            inner,
-            align,
-            if level.is_homo { "HOMO" } else { "LUMO" },
+        // Correlation lines leave from the bar's inner end: the tag sits on a patch of the
+        // panel's background so that the lines pass behind it.
+        let tag = painter.layout_no_wrap(
+            if level.is_homo { "HOMO" } else { "LUMO" }.to_string(),
             FontId::proportional(9.0),
             faint,
         );
+        let rect = align.anchor_size(inner, tag.size());
+        let background = painter.ctx().global_style().visuals.extreme_bg_color;
+        painter.rect_filled(rect.expand(1.0), 2.0, background);
+        painter.galley(rect.min, tag, faint);
     }
 }
 

@@ -447,6 +447,10 @@ pub fn run(opened: Option<(Opened, PathBuf)>, screenshot: Option<PathBuf>) -> Re
                         app.state.recent_files =
                             eframe::get_value(storage, RECENT_FILES_KEY).unwrap_or_default();
                     }
+                    // A file named on the command line counts as opened.
+                    if let Some(path) = app.state.path.clone() {
+                        app.state.remember_recent(&path);
+                    }
                     if fresh_start {
                         app.state.recovery_offer =
                             app.state.recovery_path.as_deref().and_then(recovery::read);

@@ -446,6 +446,8 @@ fn write_level(
         );
     }
     if level.is_homo || level.is_lumo {
+        // Correlation lines leave from here: a white halo (painted under the glyphs) keeps
+        // the tag legible where they pass.
         let (x, anchor) = if ladder == 0 {
             (level.x_right + 5.0, "start")
         } else {
@@ -453,7 +455,7 @@ fn write_level(
         };
         let _ = writeln!(
             svg,
-            "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"{anchor}\" fill=\"{faint}\">{}</text>",
+            "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"{anchor}\" fill=\"{faint}\" stroke=\"#ffffff\" stroke-width=\"3\" stroke-linejoin=\"round\" paint-order=\"stroke\">{}</text>",
             number(x),
             number(level.y - 4.0),
             number(options.font_size * 0.6),
