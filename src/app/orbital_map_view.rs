@@ -31,6 +31,8 @@ pub enum PlaneChoice {
     Automatic,
     /// Through three atoms.
     Atoms([usize; 3]),
+    /// Through the first atom, normal to its bond to the second (a π orbital end-on).
+    NormalToBond([usize; 2]),
 }
 
 /// What a map was made for: the analysis (by address), the orbital and the plane.
@@ -124,6 +126,9 @@ fn map_for(
     let plane = match choice {
         PlaneChoice::Automatic => default_plane(analysis, orbital),
         PlaneChoice::Atoms(atoms) => Plane::through_atoms(&analysis.molecule, atoms),
+        PlaneChoice::NormalToBond([atom, partner]) => {
+            Plane::normal_to_bond(&analysis.molecule, atom, partner)
+        }
     }
     .map_err(|error| error.to_string())?;
     let options = MapOptions {
@@ -181,27 +186,51 @@ pub fn show(
 }
 
 fn plane_form(ui: &mut egui::Ui, panel: &mut MapPanel, atom_count: usize) {
+    let last = atom_count.saturating_sub(1);
     ui.horizontal_wrapped(|ui| {
-        let mut automatic = panel.plane == PlaneChoice::Automatic;
+        let choice = panel.plane;
         if ui
-            .radio(automatic, "best plane")
+            .radio(choice == PlaneChoice::Automatic, "best plane")
             .on_hover_text("The plane that holds most of the orbital")
             .clicked()
         {
-            automatic = true;
             panel.plane = PlaneChoice::Automatic;
         }
-        if ui.radio(!automatic, "through atoms").clicked() && automatic {
-            panel.plane = PlaneChoice::Atoms([0, 1, 2.min(atom_count.saturating_sub(1))]);
+        if ui
+            .radio(matches!(choice, PlaneChoice::Atoms(_)), "through atoms")
+            .clicked()
+            && !matches!(choice, PlaneChoice::Atoms(_))
+        {
+            panel.plane = PlaneChoice::Atoms([0, 1.min(last), 2.min(last)]);
         }
-        if let PlaneChoice::Atoms(mut atoms) = panel.plane {
-            let last = atom_count.saturating_sub(1);
-            for (slot, name) in ["I", "J", "K"].iter().enumerate() {
-                let label = ui.label(*name);
-                ui.add(egui::DragValue::new(&mut atoms[slot]).range(0..=last))
-                    .labelled_by(label.id);
+        if ui
+            .radio(
+                matches!(choice, PlaneChoice::NormalToBond(_)),
+                "normal to a bond",
+            )
+            .clicked()
+            && !matches!(choice, PlaneChoice::NormalToBond(_))
+        {
+            panel.plane = PlaneChoice::NormalToBond([0, 1.min(last)]);
+        }
+    });
+    ui.horizontal_wrapped(|ui| {
+        let index_field = |ui: &mut egui::Ui, name: &str, value: &mut usize| {
+            let label = ui.label(name);
+            ui.add(egui::DragValue::new(value).range(0..=last))
+                .labelled_by(label.id);
+        };
+        match &mut panel.plane {
+            PlaneChoice::Automatic => {}
+            PlaneChoice::Atoms(atoms) => {
+                for (slot, name) in ["I", "J", "K"].iter().enumerate() {
+                    index_field(ui, name, &mut atoms[slot]);
+                }
             }
-            panel.plane = PlaneChoice::Atoms(atoms);
+            PlaneChoice::NormalToBond(atoms) => {
+                index_field(ui, "through atom", &mut atoms[0]);
+                index_field(ui, "bond to", &mut atoms[1]);
+            }
         }
     });
 }
