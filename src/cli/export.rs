@@ -9,7 +9,7 @@ use clap::{Args, ValueEnum};
 use diptych::diagram::{DiagramOptions, Ladders, Resolution, SvgOptions, diagram_for};
 
 use super::output::{check_replaceable, extension_among, write_output};
-use super::{MethodFlags, ModelArg, open_for_cli, run_analysis};
+use super::{MethodArgs, analyse_file};
 
 /// Which ladders go into the figure.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
@@ -39,15 +39,8 @@ pub(super) struct ExportArgs {
     /// Titles of the two ladders (delocalized, localized); neither may be empty.
     #[arg(long, num_args = 2, value_names = ["LEFT", "RIGHT"])]
     names: Option<Vec<String>>,
-    /// Net charge of the molecule (overrides the file's).
-    #[arg(long, allow_hyphen_values = true)]
-    charge: Option<i32>,
-    /// Hold each lone pair's p orbital non-bonding (the first-order diagram).
-    #[arg(long)]
-    no_lone_pair_mixing: bool,
-    /// Hybrid model for the localized picture.
-    #[arg(long, value_enum)]
-    model: Option<ModelArg>,
+    #[command(flatten)]
+    method: MethodArgs,
     /// Grey tones only (for print).
     #[arg(long)]
     greyscale: bool,
@@ -109,16 +102,7 @@ pub(super) fn export(args: &ExportArgs) -> ExitCode {
     if let Err(code) = check_replaceable(output, args.force) {
         return code;
     }
-    let flags = MethodFlags {
-        no_lone_pair_mixing: args.no_lone_pair_mixing,
-        model: args.model,
-    };
-    let result = open_for_cli(&args.file, args.charge).and_then(|opened| {
-        let mut settings = opened.project.settings.clone();
-        flags.apply(&mut settings);
-        run_analysis(&opened, &settings).map(|analysis| (opened, analysis))
-    });
-    let (opened, analysis) = match result {
+    let (opened, analysis) = match analyse_file(&args.file, &args.method) {
         Ok(pair) => pair,
         Err(code) => return code,
     };

@@ -10,7 +10,7 @@ use diptych::orbital_map::{
     MapOptions, MapSvgOptions, Plane, compute_map, default_plane, find_orbital, map_to_svg,
 };
 
-use super::{MethodFlags, ModelArg, open_for_cli, run_analysis};
+use super::{MethodArgs, analyse_file};
 
 /// Arguments of `diptych map`.
 #[derive(Args, Debug)]
@@ -41,15 +41,8 @@ pub(super) struct MapArgs {
     /// Space around the atoms, Å.
     #[arg(long, default_value_t = 2.0)]
     margin: f64,
-    /// Net charge of the molecule (overrides the file's).
-    #[arg(long, allow_hyphen_values = true)]
-    charge: Option<i32>,
-    /// Hold each lone pair's p orbital non-bonding (the first-order diagram).
-    #[arg(long)]
-    no_lone_pair_mixing: bool,
-    /// Hybrid model for the localized picture.
-    #[arg(long, value_enum)]
-    model: Option<ModelArg>,
+    #[command(flatten)]
+    method: MethodArgs,
     /// Replace OUT if it exists.
     #[arg(long)]
     force: bool,
@@ -138,16 +131,8 @@ pub(super) fn map(args: &MapArgs) -> ExitCode {
             output.display()
         ));
     }
-    let flags = MethodFlags {
-        no_lone_pair_mixing: args.no_lone_pair_mixing,
-        model: args.model,
-    };
-    let analysis = match open_for_cli(&args.file, args.charge).and_then(|opened| {
-        let mut settings = opened.project.settings.clone();
-        flags.apply(&mut settings);
-        run_analysis(&opened, &settings)
-    }) {
-        Ok(analysis) => analysis,
+    let analysis = match analyse_file(&args.file, &args.method) {
+        Ok((_, analysis)) => analysis,
         Err(code) => return code,
     };
     let reference = match find_orbital(&analysis, &args.orbital) {

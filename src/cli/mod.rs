@@ -11,7 +11,7 @@ use std::io::Write;
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
 
-use clap::{Parser, Subcommand, ValueEnum};
+use clap::{Args, Parser, Subcommand, ValueEnum};
 
 use diptych::analysis::{Analysis, Settings};
 use diptych::project::{Opened, open_path};
@@ -41,18 +41,11 @@ enum Command {
     Analyze {
         /// Molecule (.xyz, .mol, .sdf) or project (.diptych.ron) file.
         file: PathBuf,
-        /// Net charge of the molecule (overrides the file's).
-        #[arg(long, allow_hyphen_values = true)]
-        charge: Option<i32>,
         /// Output format.
         #[arg(long, value_enum, default_value_t = Format::Text)]
         format: Format,
-        /// Hold each lone pair's p orbital non-bonding (the first-order diagram).
-        #[arg(long)]
-        no_lone_pair_mixing: bool,
-        /// Hybrid model for the localized picture.
-        #[arg(long, value_enum)]
-        model: Option<ModelArg>,
+        #[command(flatten)]
+        method: MethodArgs,
     },
     /// Export the correlation diagram as a standalone SVG or PNG file.
     Export(export::ExportArgs),
@@ -86,14 +79,22 @@ impl From<ModelArg> for diptych::hybrid::HybridModel {
     }
 }
 
-/// Method choices given on the command line, applied over the project's settings.
-#[derive(Clone, Copy, Debug, Default)]
-pub(super) struct MethodFlags {
+/// The charge and method choices every analysing subcommand takes, applied over the
+/// file's (or project's) own values.
+#[derive(Args, Clone, Copy, Debug, Default)]
+pub(super) struct MethodArgs {
+    /// Net charge of the molecule (overrides the file's).
+    #[arg(long, allow_hyphen_values = true)]
+    pub(super) charge: Option<i32>,
+    /// Hold each lone pair's p orbital non-bonding (the first-order diagram).
+    #[arg(long)]
     no_lone_pair_mixing: bool,
+    /// Hybrid model for the localized picture.
+    #[arg(long, value_enum)]
     model: Option<ModelArg>,
 }
 
-impl MethodFlags {
+impl MethodArgs {
     pub(super) fn apply(&self, settings: &mut Settings) {
         if self.no_lone_pair_mixing {
             settings.lone_pair_mixing = false;
@@ -102,6 +103,19 @@ impl MethodFlags {
             settings.hybrid.model = model.into();
         }
     }
+}
+
+/// Opens `file` and analyses it with `method` applied; on failure the message is printed
+/// and the exit code returned.
+pub(super) fn analyse_file(
+    file: &Path,
+    method: &MethodArgs,
+) -> Result<(Opened, Analysis), ExitCode> {
+    let opened = open_for_cli(file, method.charge)?;
+    let mut settings = opened.project.settings.clone();
+    method.apply(&mut settings);
+    let analysis = run_analysis(&opened, &settings)?;
+    Ok((opened, analysis))
 }
 
 #[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
@@ -116,17 +130,9 @@ pub fn main() -> ExitCode {
     match cli.command {
         Some(Command::Analyze {
             file,
-            charge,
             format,
-            no_lone_pair_mixing,
-            model,
-        }) => {
-            let flags = MethodFlags {
-                no_lone_pair_mixing,
-                model,
-            };
-            analyze(&file, charge, format, flags)
-        }
+            method,
+        }) => analyze(&file, format, &method),
         Some(Command::Export(args)) => export::export(&args),
         Some(Command::Report(args)) => report::report(&args),
         Some(Command::Scan(args)) => scan::scan(&args),
@@ -161,14 +167,9 @@ pub(super) fn run_analysis(opened: &Opened, settings: &Settings) -> Result<Analy
     Ok(analysis)
 }
 
-fn analyze(file: &Path, charge: Option<i32>, format: Format, flags: MethodFlags) -> ExitCode {
-    let result = open_for_cli(file, charge).and_then(|opened| {
-        let mut settings = opened.project.settings.clone();
-        flags.apply(&mut settings);
-        run_analysis(&opened, &settings)
-    });
-    let analysis = match result {
-        Ok(analysis) => analysis,
+fn analyze(file: &Path, format: Format, method: &MethodArgs) -> ExitCode {
+    let analysis = match analyse_file(file, method) {
+        Ok((_, analysis)) => analysis,
         Err(code) => return code,
     };
     let output = match format {

@@ -9,7 +9,7 @@ use clap::Args;
 use diptych::report::{ReportFormat, render};
 
 use super::output::{check_replaceable, extension_among, write_output};
-use super::{MethodFlags, ModelArg, open_for_cli, run_analysis};
+use super::{MethodArgs, analyse_file};
 
 #[derive(Args, Debug)]
 pub(super) struct ReportArgs {
@@ -18,15 +18,8 @@ pub(super) struct ReportArgs {
     /// Output file: .md (Markdown tables), .csv (one long table), .json or .txt.
     #[arg(short, long, value_name = "OUT.md|OUT.csv|OUT.json")]
     output: PathBuf,
-    /// Net charge of the molecule (overrides the file's).
-    #[arg(long, allow_hyphen_values = true)]
-    charge: Option<i32>,
-    /// Hold each lone pair's p orbital non-bonding (the first-order diagram).
-    #[arg(long)]
-    no_lone_pair_mixing: bool,
-    /// Hybrid model for the localized picture.
-    #[arg(long, value_enum)]
-    model: Option<ModelArg>,
+    #[command(flatten)]
+    method: MethodArgs,
     /// Replace OUT if it exists.
     #[arg(long)]
     force: bool,
@@ -44,17 +37,8 @@ pub(super) fn report(args: &ReportArgs) -> ExitCode {
     if let Err(code) = check_replaceable(&args.output, args.force) {
         return code;
     }
-    let flags = MethodFlags {
-        no_lone_pair_mixing: args.no_lone_pair_mixing,
-        model: args.model,
-    };
-    let result = open_for_cli(&args.file, args.charge).and_then(|opened| {
-        let mut settings = opened.project.settings.clone();
-        flags.apply(&mut settings);
-        run_analysis(&opened, &settings)
-    });
-    match result {
-        Ok(analysis) => write_output(&args.output, render(&analysis, format).as_bytes()),
+    match analyse_file(&args.file, &args.method) {
+        Ok((_, analysis)) => write_output(&args.output, render(&analysis, format).as_bytes()),
         Err(code) => code,
     }
 }
