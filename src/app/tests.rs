@@ -33,19 +33,40 @@ fn delocalized_labels(harness: &Harness<'static, DiptychApp>) -> Vec<String> {
 
 /// Steps frames until the worker's analysis of the current document has arrived.
 fn wait_for_analysis(harness: &mut Harness<'static, DiptychApp>) {
+    step_until(harness, "the analysis", DiptychApp::is_analysed);
+    harness.step();
+}
+
+/// Steps frames until `done` holds for the app (work on background threads arrives), or
+/// fails naming `what` after 60 s.
+fn step_until(
+    harness: &mut Harness<'static, DiptychApp>,
+    what: &str,
+    done: impl Fn(&DiptychApp) -> bool,
+) {
     let start = Instant::now();
     loop {
         harness.step();
-        if harness.state().is_analysed() {
-            harness.step();
+        if done(harness.state()) {
             return;
         }
         assert!(
-            start.elapsed() < Duration::from_secs(30),
-            "analysis never arrived"
+            start.elapsed() < Duration::from_secs(60),
+            "{what} never came"
         );
         std::thread::sleep(Duration::from_millis(5));
     }
+}
+
+/// The highest occupied canonical orbital of the analysis on screen.
+fn homo_of(harness: &Harness<'static, DiptychApp>) -> diptych::analysis::OrbitalSummary {
+    let analysis = harness.state().state.analysis.as_ref().expect("analysed");
+    analysis
+        .orbitals
+        .iter()
+        .rfind(|o| o.occupancy > 0.0)
+        .expect("occupied orbitals")
+        .clone()
 }
 
 #[test]
@@ -240,15 +261,7 @@ fn selecting_a_bond_shows_its_constituents_and_hybrids() {
 fn the_lone_pair_switch_moves_the_lone_pair_level() {
     let mut harness = harness();
     wait_for_analysis(&mut harness);
-    let homo = |harness: &Harness<'static, DiptychApp>| {
-        let analysis = harness.state().state.analysis.as_ref().unwrap();
-        analysis
-            .orbitals
-            .iter()
-            .rfind(|o| o.occupancy > 0.0)
-            .unwrap()
-            .energy_ev
-    };
+    let homo = |harness: &Harness<'static, DiptychApp>| homo_of(harness).energy_ev;
     let before = homo(&harness);
     harness.get_by_label("Lone-pair mixing").click();
     harness.run_steps(1);
@@ -371,15 +384,7 @@ fn flattening_a_pyramidal_template_moves_the_lone_pair_level() {
     harness.get_by_label("Apply template").click();
     harness.run_steps(2);
     wait_for_analysis(&mut harness);
-    let homo = |harness: &Harness<'static, DiptychApp>| {
-        let analysis = harness.state().state.analysis.as_ref().unwrap();
-        analysis
-            .orbitals
-            .iter()
-            .rfind(|o| o.occupancy > 0.0)
-            .unwrap()
-            .clone()
-    };
+    let homo = homo_of;
     let pyramidal = homo(&harness);
     assert_eq!(pyramidal.label.as_deref(), Some("3a1"));
     // Flatten to 120°: Walsh (J. Chem. Soc. 1953, from memory) — the lone pair rises and
@@ -579,15 +584,7 @@ fn opened_files_are_remembered_as_recent() {
 fn a_parameter_override_changes_the_levels_and_is_undoable() {
     let mut harness = harness();
     wait_for_analysis(&mut harness);
-    let homo = |harness: &Harness<'static, DiptychApp>| {
-        let analysis = harness.state().state.analysis.as_ref().unwrap();
-        analysis
-            .orbitals
-            .iter()
-            .rfind(|o| o.occupancy > 0.0)
-            .unwrap()
-            .energy_ev
-    };
+    let homo = |harness: &Harness<'static, DiptychApp>| homo_of(harness).energy_ev;
     let before = homo(&harness);
     harness.state_mut().state.settings_open = true;
     harness.run_steps(2);
@@ -653,12 +650,9 @@ fn a_walsh_scan_runs_off_the_ui_thread_and_a_point_sets_the_geometry() {
     harness.run_steps(2);
     // The default form is ammonia's pyramidalization from 90° to 120°.
     harness.get_by_label("Run scan").click();
-    let start = Instant::now();
-    while harness.state().state.walsh.scan.is_none() {
-        harness.step();
-        assert!(start.elapsed() < Duration::from_secs(60), "scan finishes");
-        std::thread::sleep(Duration::from_millis(5));
-    }
+    step_until(&mut harness, "the scan", |app| {
+        app.state.walsh.scan.is_some()
+    });
     harness.run_steps(2);
     let scan = harness.state().state.walsh.scan.clone().expect("scan");
     assert_eq!(scan.points.len(), 31);
@@ -769,12 +763,9 @@ fn a_selected_level_shows_its_orbital_map() {
     let mut harness = harness();
     wait_for_analysis(&mut harness);
     harness.state_mut().state.selected_level = Some(LevelRef { ladder: 0, key: 3 });
-    let start = Instant::now();
-    while harness.state().state.map.current().is_none() {
-        harness.step();
-        assert!(start.elapsed() < Duration::from_secs(30), "map arrives");
-        std::thread::sleep(Duration::from_millis(5));
-    }
+    step_until(&mut harness, "the map", |app| {
+        app.state.map.current().is_some()
+    });
     harness.run_steps(2);
     harness.get_by_label("Export map SVG…");
     let map = harness.state().state.map.current().expect("map");
@@ -789,19 +780,33 @@ fn a_selected_level_shows_its_orbital_map() {
     // Another plane: through the three hydrogens (the lone pair's nodal region).
     harness.state_mut().state.map.plane = super::orbital_map_view::PlaneChoice::Atoms([1, 2, 3]);
     harness.run_steps(1);
-    let start = Instant::now();
-    loop {
-        harness.step();
-        let current = harness.state().state.map.current();
-        if current.is_some_and(|m| m.plane != map.plane) {
-            break;
-        }
-        assert!(
-            start.elapsed() < Duration::from_secs(30),
-            "new plane's map arrives"
-        );
-        std::thread::sleep(Duration::from_millis(5));
-    }
+    step_until(&mut harness, "the new plane's map", |app| {
+        app.state
+            .map
+            .current()
+            .is_some_and(|m| m.plane != map.plane)
+    });
+    // A plane through N normal to the N–H1 bond: N sits on it, H1 is off it.
+    harness.state_mut().state.map.plane =
+        super::orbital_map_view::PlaneChoice::NormalToBond([0, 1]);
+    step_until(&mut harness, "the bond-normal map", |app| {
+        app.state.map.current().is_some_and(|m| {
+            matches!(
+                m.plane.kind,
+                diptych::orbital_map::PlaneKind::NormalToBond { .. }
+            )
+        })
+    });
+    let map = harness.state().state.map.current().expect("map");
+    let height = |index: usize| {
+        map.atoms
+            .iter()
+            .find(|atom| atom.index == index)
+            .map(|atom| atom.height.abs())
+            .expect("atom projected")
+    };
+    assert!(height(0) < 1e-9, "N lies on the plane");
+    assert!(height(1) > 0.9, "H1 lies a bond length off the plane");
 }
 
 #[test]
@@ -815,24 +820,14 @@ fn a_hybrid_of_a_bond_can_be_mapped_and_edit_menu_symmetrizes() {
     });
     harness.run_steps(2);
     harness.get_by_label("map N0").click();
-    let start = Instant::now();
-    loop {
-        harness.step();
-        let map = harness.state().state.map.current();
-        if map.is_some_and(|m| {
+    step_until(&mut harness, "the hybrid's map", |app| {
+        app.state.map.current().is_some_and(|m| {
             matches!(
                 m.orbital.reference,
                 Some(diptych::orbital_map::OrbitalRef::Hybrid(_))
             )
-        }) {
-            break;
-        }
-        assert!(
-            start.elapsed() < Duration::from_secs(30),
-            "hybrid map arrives"
-        );
-        std::thread::sleep(Duration::from_millis(5));
-    }
+        })
+    });
     // Edit ▸ Symmetrize is offered only when the geometry is not already exact.
     {
         let state = &mut harness.state_mut().state;
