@@ -282,7 +282,6 @@ fn label_job(
         job.append("  ", 0.0, normal.clone());
     }
     for (text, script) in label_runs(&level.label) {
-        let text = super::theme::screen_label(&text);
         let format = match script {
             Script::Normal => normal.clone(),
             Script::Sub => small(egui::Align::BOTTOM),

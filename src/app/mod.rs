@@ -40,6 +40,8 @@ pub struct DiptychApp {
     dialogs: Dialogs,
     screenshot: Option<ScreenshotTask>,
     last_title: String,
+    /// Whether the fallback font has been given to the drawing context.
+    fonts_installed: bool,
 }
 
 impl DiptychApp {
@@ -53,6 +55,7 @@ impl DiptychApp {
             dialogs: Dialogs::default(),
             screenshot: screenshot.map(ScreenshotTask::new),
             last_title: String::new(),
+            fonts_installed: false,
         }
     }
 
@@ -71,6 +74,11 @@ impl DiptychApp {
 
     /// The panels, dialogs and bookkeeping of one frame.
     fn panels_ui(&mut self, ui: &mut egui::Ui) {
+        if !self.fonts_installed {
+            // On the context that really draws (the window's, or a test harness's).
+            theme::install_fonts(ui.ctx());
+            self.fonts_installed = true;
+        }
         self.state.receive_results(ui.input(|input| input.time));
         self.dialogs.apply(&mut self.state);
         // Every edit of this frame is compared against this copy (undo, recompute).

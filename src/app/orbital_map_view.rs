@@ -160,7 +160,7 @@ pub fn show(
             });
             match &panel.shown {
                 Some((_, Ok(map))) if key_matches => {
-                    ui.label(super::theme::screen_label(&map.orbital.label));
+                    ui.label(&map.orbital.label);
                     draw(ui, map);
                     ui.horizontal(|ui| {
                         ui.colored_label(POSITIVE, "positive");

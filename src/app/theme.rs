@@ -2,7 +2,7 @@
 //! on both light and dark backgrounds, one accent for selection (design choice, no source).
 
 use diptych::chem::Element;
-use eframe::egui::Color32;
+use eframe::egui::{self, Color32};
 
 /// Fill colour of an atom of `element` in the Structure panel.
 pub fn element_colour(element: Element) -> Color32 {
@@ -65,9 +65,24 @@ pub fn level_colour(label: &str, ink: Color32) -> Color32 {
     diptych::diagram::style::level_rgb(label).map_or(ink, |[r, g, b]| Color32::from_rgb(r, g, b))
 }
 
-/// A label as the screen shows it: egui's built-in font has no typographic primes or
-/// arrows, so ASCII ones keep labels such as 1a2″ legible everywhere (the SVG writer keeps
-/// ′, ″ and →).
-pub fn screen_label(text: &str) -> String {
-    text.replace('″', "''").replace('′', "'").replace('→', "->")
+/// DejaVu Sans (Bitstream Vera licence, assets/fonts/DejaVuSans-LICENSE.txt), the font the
+/// SVG and PNG exports use, as egui's fallback: its own font has no typographic primes
+/// (1a₂″), arrows or many symbols, and labels must read the same on screen and in print.
+const FALLBACK_FONT: &[u8] = include_bytes!("../../assets/fonts/DejaVuSans.ttf");
+
+/// Adds the fallback font behind egui's own fonts.
+pub fn install_fonts(context: &egui::Context) {
+    use egui::epaint::text::{FontInsert, FontPriority, InsertFontFamily};
+    let families = [egui::FontFamily::Proportional, egui::FontFamily::Monospace]
+        .into_iter()
+        .map(|family| InsertFontFamily {
+            family,
+            priority: FontPriority::Lowest,
+        })
+        .collect();
+    context.add_font(FontInsert::new(
+        "DejaVu Sans",
+        egui::FontData::from_static(FALLBACK_FONT),
+        families,
+    ));
 }

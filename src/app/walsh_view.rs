@@ -15,7 +15,7 @@ use egui_plot::{Legend, Line, Plot, PlotPoints, Points, Text, VLine};
 use super::menus::Dialogs;
 use super::scan_job::ScanJob;
 use super::state::AppState;
-use super::theme::{ACCENT, level_colour, screen_label};
+use super::theme::{ACCENT, level_colour};
 
 /// The coordinates offered in the window (the library's `Coordinate` without atoms).
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -318,7 +318,14 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
     let mut clicked_at = None;
 
     let (low, high) = energy_window(&scan);
+    // Room on the right for the end labels.
+    let (x_first, x_last) = (
+        scan.request.from.min(scan.request.to),
+        scan.request.from.max(scan.request.to),
+    );
+    let (x_min, x_max) = (x_first, x_last + 0.22 * (x_last - x_first).max(1e-6));
     let response = Plot::new("walsh energies")
+        .default_x_bounds(x_min, x_max)
         .height(available * 0.55)
         .legend(Legend::default())
         .link_axis(link, [true, false])
@@ -332,7 +339,7 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
                 for segment in segments(&scan, &curve.energies) {
                     let last = segment.last().copied();
                     plot.line(
-                        Line::new(screen_label(&legend), PlotPoints::from(segment))
+                        Line::new(legend.clone(), PlotPoints::from(segment))
                             .color(colour)
                             .width(1.8),
                     );
@@ -342,7 +349,7 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
                     {
                         plot.text(
                             Text::new(
-                                screen_label(&legend),
+                                legend.clone(),
                                 [x, y].into(),
                                 egui::RichText::new(end_label(curve)).color(colour),
                             )
@@ -379,6 +386,7 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
     });
     let groups = lambda_groups(&scan, state.walsh.lambda_model.key());
     let response = Plot::new("walsh lambda")
+        .default_x_bounds(x_min, x_max)
         .height(available * 0.22)
         .legend(Legend::default().position(egui_plot::Corner::LeftTop))
         .link_axis(link, [true, false])
@@ -427,6 +435,7 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
 
     let sums: Vec<Option<f64>> = scan.points.iter().map(|p| p.sum_occupied_ev).collect();
     let response = Plot::new("walsh sum")
+        .default_x_bounds(x_min, x_max)
         .height(available * 0.18)
         .link_axis(link, [true, false])
         .y_axis_label("Σ occ·ε / eV")
@@ -493,13 +502,12 @@ fn lambda_groups(scan: &Scan, model: &str) -> Vec<LambdaGroup> {
     };
     let mut groups: Vec<LambdaGroup> = Vec::new();
     for series in scan.lambdas.iter().filter(|s| s.key.model == model) {
-        let short = screen_label(
-            series
-                .name
-                .trim_start_matches("λ ")
-                .trim_start_matches(model)
-                .trim(),
-        );
+        let short = series
+            .name
+            .trim_start_matches("λ ")
+            .trim_start_matches(model)
+            .trim()
+            .to_string();
         match groups.iter_mut().find(|g| same(&g.values, &series.values)) {
             Some(group) => {
                 group.name.push_str(", ");
@@ -548,8 +556,8 @@ pub fn take_point_geometry(state: &mut AppState, scan: &Scan, index: usize) {
 /// (ammonia's 3a1 becomes 1a2″ when planar).
 fn end_label(curve: &diptych::scan::Curve) -> String {
     match curve.labels.last().cloned().flatten() {
-        Some(last) if last != curve.label => screen_label(&format!("{} → {last}", curve.label)),
-        _ => screen_label(&curve.label),
+        Some(last) if last != curve.label => format!("{} → {last}", curve.label),
+        _ => curve.label.clone(),
     }
 }
 

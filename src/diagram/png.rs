@@ -37,13 +37,12 @@ pub enum PngError {
     TooLarge { width: u64, height: u64 },
     #[error("the SVG could not be read: {0}")]
     Svg(String),
-    #[error(
-        "no fonts were found on this system, so the text of the figure cannot be drawn; install a font (e.g. the Debian package fonts-dejavu-core)"
-    )]
-    NoFonts,
     #[error("the PNG could not be encoded: {0}")]
     Encode(String),
 }
+
+/// DejaVu Sans (Bitstream Vera licence, assets/fonts/DejaVuSans-LICENSE.txt).
+const EMBEDDED_SANS: &[u8] = include_bytes!("../../assets/fonts/DejaVuSans.ttf");
 
 /// Sans-serif families to stand in for the generic `sans-serif`, in order of preference;
 /// the first is the one `.ci/run` installs.
@@ -62,6 +61,9 @@ pub fn system_fonts() -> Arc<fontdb::Database> {
         .get_or_init(|| {
             let mut database = fontdb::Database::new();
             database.load_system_fonts();
+            // Our own copy of the first family the SVG asks for, so that a machine without
+            // fonts still draws the text, and every machine draws it with the same glyphs.
+            database.load_font_data(EMBEDDED_SANS.to_vec());
             // fontdb maps the generic families to Windows fonts by default; point them at
             // a font that is present so that the generic fallback really falls back.
             let present: Vec<String> = database
@@ -94,9 +96,6 @@ pub fn rasterize(svg: &str, resolution: Resolution) -> Result<Pixmap, PngError> 
         ..usvg::Options::default()
     };
     let tree = usvg::Tree::from_str(svg, &options).map_err(|e| PngError::Svg(e.to_string()))?;
-    if fonts.is_empty() && svg.contains("<text") {
-        return Err(PngError::NoFonts);
-    }
     let size = tree.size();
     let (width_css, height_css) = (size.width() as f64, size.height() as f64);
     let scale = match resolution {
@@ -165,6 +164,21 @@ pub fn encode_png(pixmap: &Pixmap, dpi: f64) -> Result<Vec<u8>, PngError> {
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn the_embedded_font_is_always_there_and_draws_text() {
+        let fonts = system_fonts();
+        assert!(
+            fonts
+                .faces()
+                .any(|face| face.families.iter().any(|(name, _)| name == "DejaVu Sans")),
+            "embedded DejaVu Sans loaded"
+        );
+        let svg = r#"<svg xmlns="http://www.w3.org/2000/svg" width="80" height="30"><text x="5" y="22" font-family="DejaVu Sans" font-size="20">Hg</text></svg>"#;
+        let pixmap = rasterize(svg, Resolution::Dpi(96.0)).expect("renders");
+        let inked = pixmap.pixels().iter().filter(|p| p.alpha() > 0).count();
+        assert!(inked > 30, "the text left ink ({inked} pixels)");
+    }
 
     #[test]
     fn dpi_scales_the_raster_and_bad_values_are_refused() {
