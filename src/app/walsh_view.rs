@@ -15,7 +15,7 @@ use egui_plot::{Legend, Line, Plot, PlotPoints, Points, Text, VLine};
 use super::menus::Dialogs;
 use super::scan_job::ScanJob;
 use super::state::AppState;
-use super::theme::{ACCENT, level_colour};
+use super::theme::level_colour;
 
 /// The coordinates offered in the window (the library's `Coordinate` without atoms).
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -348,10 +348,14 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
                         && (low..=high).contains(&y)
                     {
                         plot.text(
+                            // No name: end labels stay out of the legend, whose
+                            // entries take their colour from the curves.
                             Text::new(
-                                legend.clone(),
+                                "",
                                 [x, y].into(),
-                                egui::RichText::new(end_label(curve)).color(colour),
+                                egui::RichText::new(end_label(curve))
+                                    .color(colour)
+                                    .size(13.0),
                             )
                             .anchor(egui::Align2::LEFT_CENTER),
                         );
@@ -359,11 +363,7 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
                 }
             }
             if let Some(value) = marker {
-                plot.vline(
-                    VLine::new("current geometry", value)
-                        .color(ACCENT)
-                        .width(1.5),
-                );
+                plot.vline(current_geometry_marker(value, ink));
             }
             plot.pointer_coordinate()
         });
@@ -425,7 +425,7 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
                 }
             }
             if let Some(value) = marker {
-                plot.vline(VLine::new("current geometry", value).color(ACCENT));
+                plot.vline(current_geometry_marker(value, ink));
             }
             plot.pointer_coordinate()
         });
@@ -452,7 +452,7 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
                 );
             }
             if let Some(value) = marker {
-                plot.vline(VLine::new("current geometry", value).color(ACCENT));
+                plot.vline(current_geometry_marker(value, ink));
             }
             plot.pointer_coordinate()
         });
@@ -466,6 +466,15 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
     {
         take_point_geometry(state, &scan, index);
     }
+}
+
+/// The dashed vertical line at the document's geometry (neutral ink, so it is not read
+/// as one of the irrep colours).
+fn current_geometry_marker(value: f64, ink: egui::Color32) -> VLine {
+    VLine::new("current geometry", value)
+        .color(ink.gamma_multiply(0.6))
+        .width(1.5)
+        .style(egui_plot::LineStyle::dashed_loose())
 }
 
 /// Which model's λ the second plot shows.
