@@ -843,3 +843,64 @@ fn a_hybrid_of_a_bond_can_be_mapped_and_edit_menu_symmetrizes() {
     wait_for_analysis(&mut harness);
     assert!(!harness.state().state.can_symmetrize());
 }
+
+#[test]
+fn shift_drag_in_the_structure_view_moves_the_selected_atom() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    harness.state_mut().state.selected_atom = Some(1);
+    harness.run_steps(2);
+    let before = harness.state().state.project.molecule.clone();
+    // A point inside the Structure panel's 3D view (the left panel, below the toolbar).
+    let start = egui::pos2(190.0, 600.0);
+    let shift = egui::Modifiers::SHIFT;
+    harness
+        .input_mut()
+        .events
+        .push(egui::Event::ModifiersChanged(shift));
+    harness
+        .input_mut()
+        .events
+        .push(egui::Event::PointerMoved(start));
+    harness.step();
+    harness.input_mut().events.push(egui::Event::PointerButton {
+        pos: start,
+        button: egui::PointerButton::Primary,
+        pressed: true,
+        modifiers: shift,
+    });
+    harness.step();
+    for step in 1..=10 {
+        let at = start + egui::vec2(6.0 * step as f32, 0.0);
+        harness
+            .input_mut()
+            .events
+            .push(egui::Event::PointerMoved(at));
+        harness.step();
+    }
+    harness.input_mut().events.push(egui::Event::PointerButton {
+        pos: start + egui::vec2(60.0, 0.0),
+        button: egui::PointerButton::Primary,
+        pressed: false,
+        modifiers: shift,
+    });
+    harness.step();
+    let after = harness.state().state.project.molecule.clone();
+    let moved = (after.atoms[1].position - before.atoms[1].position).norm();
+    assert!(moved > 0.05, "the selected atom moved ({moved} Å)");
+    for index in [0, 2, 3] {
+        assert_eq!(
+            after.atoms[index].position, before.atoms[index].position,
+            "atom {index} stays"
+        );
+    }
+    // The move is one undoable edit.
+    harness
+        .input_mut()
+        .events
+        .push(egui::Event::ModifiersChanged(egui::Modifiers::NONE));
+    harness.step();
+    harness.state_mut().state.undo();
+    harness.run_steps(2);
+    assert_eq!(harness.state().state.project.molecule, before);
+}
