@@ -41,6 +41,7 @@ struct MapKey {
     analysis: usize,
     orbital: OrbitalRef,
     plane: PlaneChoice,
+    levels: Vec<f64>,
 }
 
 /// The Inspector's map state.
@@ -49,8 +50,27 @@ pub struct MapPanel {
     /// A hybrid of the selected localized orbital shown instead of the orbital itself
     /// (the level it belongs to, its index in `hybrid_entries`).
     pub hybrid: Option<(super::diagram_view::LevelRef, usize)>,
+    /// Contour magnitudes (bohr^-3/2, each drawn at ±) as typed, and as last parsed.
+    pub levels_text: String,
+    levels: Vec<f64>,
+    levels_error: Option<String>,
     shown: Option<(MapKey, Result<Arc<OrbitalMap>, String>)>,
     pending: Option<(MapKey, Receiver<Result<OrbitalMap, String>>)>,
+}
+
+/// Positive numbers separated by commas or spaces; a clear message otherwise.
+fn parse_levels(text: &str) -> Result<Vec<f64>, String> {
+    let mut levels = Vec::new();
+    for part in text.split([',', ' ', ';']).filter(|p| !p.trim().is_empty()) {
+        match part.trim().parse::<f64>() {
+            Ok(value) if value.is_finite() && value > 0.0 => levels.push(value),
+            _ => return Err(format!("'{}' is not a positive number", part.trim())),
+        }
+    }
+    if levels.is_empty() {
+        return Err("give at least one contour level".into());
+    }
+    Ok(levels)
 }
 
 impl Default for MapPanel {
@@ -58,6 +78,13 @@ impl Default for MapPanel {
         MapPanel {
             plane: PlaneChoice::Automatic,
             hybrid: None,
+            levels_text: diptych::orbital_map::DEFAULT_LEVELS
+                .iter()
+                .map(|level| level.to_string())
+                .collect::<Vec<_>>()
+                .join(", "),
+            levels: diptych::orbital_map::DEFAULT_LEVELS.to_vec(),
+            levels_error: None,
             shown: None,
             pending: None,
         }
@@ -78,6 +105,7 @@ impl MapPanel {
             analysis: Arc::as_ptr(analysis) as usize,
             orbital,
             plane: self.plane,
+            levels: self.levels.clone(),
         };
         if self.shown.as_ref().is_some_and(|(shown, _)| *shown == key)
             || self
@@ -90,11 +118,12 @@ impl MapPanel {
         let (sender, receiver) = channel();
         let analysis = Arc::clone(analysis);
         let plane_choice = self.plane;
+        let levels = self.levels.clone();
         let context = context.clone();
         let spawned = std::thread::Builder::new()
             .name("orbital map".into())
             .spawn(move || {
-                let result = map_for(&analysis, orbital, plane_choice);
+                let result = map_for(&analysis, orbital, plane_choice, levels);
                 let _ = sender.send(result);
                 context.request_repaint();
             });
@@ -122,6 +151,7 @@ fn map_for(
     analysis: &Analysis,
     orbital: OrbitalRef,
     choice: PlaneChoice,
+    levels: Vec<f64>,
 ) -> Result<OrbitalMap, String> {
     let plane = match choice {
         PlaneChoice::Automatic => default_plane(analysis, orbital),
@@ -133,6 +163,7 @@ fn map_for(
     .map_err(|error| error.to_string())?;
     let options = MapOptions {
         points: SCREEN_GRID,
+        levels,
         ..MapOptions::default()
     };
     compute_map(analysis, orbital, &plane, &options).map_err(|error| error.to_string())
@@ -156,6 +187,7 @@ pub fn show(
             let key_matches = panel.shown.as_ref().is_some_and(|(key, _)| {
                 key.orbital == orbital
                     && key.plane == panel.plane
+                    && key.levels == panel.levels
                     && key.analysis == Arc::as_ptr(analysis) as usize
             });
             match &panel.shown {
@@ -187,6 +219,25 @@ pub fn show(
 
 fn plane_form(ui: &mut egui::Ui, panel: &mut MapPanel, atom_count: usize) {
     let last = atom_count.saturating_sub(1);
+    ui.horizontal(|ui| {
+        let label = ui.label("Contours at ±");
+        let edit = ui
+            .add(egui::TextEdit::singleline(&mut panel.levels_text).desired_width(170.0))
+            .labelled_by(label.id)
+            .on_hover_text("Magnitudes of ψ in bohr^-3/2, separated by commas");
+        if edit.changed() {
+            match parse_levels(&panel.levels_text) {
+                Ok(levels) => {
+                    panel.levels = levels;
+                    panel.levels_error = None;
+                }
+                Err(message) => panel.levels_error = Some(message),
+            }
+        }
+    });
+    if let Some(message) = &panel.levels_error {
+        ui.colored_label(ui.visuals().error_fg_color, message);
+    }
     ui.horizontal_wrapped(|ui| {
         let choice = panel.plane;
         if ui
@@ -317,4 +368,17 @@ fn draw(ui: &mut egui::Ui, map: &OrbitalMap) {
 /// The map as an SVG document (the library's writer).
 pub fn svg_of(map: &OrbitalMap) -> String {
     map_to_svg(map, &diptych::orbital_map::MapSvgOptions::default())
+}
+
+#[cfg(test)]
+mod tests {
+    use super::parse_levels;
+
+    #[test]
+    fn contour_levels_are_parsed_or_refused_with_a_reason() {
+        assert_eq!(parse_levels("0.05, 0.1 0.2").unwrap(), vec![0.05, 0.1, 0.2]);
+        assert!(parse_levels("").unwrap_err().contains("at least one"));
+        assert!(parse_levels("0.1, -2").unwrap_err().contains("'-2'"));
+        assert!(parse_levels("0.1, x").unwrap_err().contains("'x'"));
+    }
 }

@@ -807,6 +807,20 @@ fn a_selected_level_shows_its_orbital_map() {
     };
     assert!(height(0) < 1e-9, "N lies on the plane");
     assert!(height(1) > 0.9, "H1 lies a bond length off the plane");
+    // Typed contour levels: only ±0.1 is drawn (plus the node).
+    harness.get_by_label("Contours at ±").click();
+    harness.run_steps(1);
+    harness.key_press_modifiers(egui::Modifiers::COMMAND, egui::Key::A);
+    harness.run_steps(1);
+    harness.get_by_label("Contours at ±").type_text("0.1");
+    harness.run_steps(1);
+    step_until(&mut harness, "the map with one level", |app| {
+        app.state.map.current().is_some_and(|m| {
+            m.contours
+                .iter()
+                .all(|line| (line.level.abs() - 0.1).abs() < 1e-12)
+        })
+    });
 }
 
 #[test]
