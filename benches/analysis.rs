@@ -2,28 +2,20 @@
 //! hybrids, lone-pair switch, labels, localized ladder, links), on fixed geometries from
 //! tests/reference/rdkit_geometries/. Target (issue 6): C60 under 120 ms.
 
+mod support;
+
 use std::hint::black_box;
-use std::path::PathBuf;
 
 use criterion::{Criterion, criterion_group, criterion_main};
 use diptych::analysis::{Analysis, Settings};
-use diptych::chem::Molecule;
-use diptych::chem::io::xyz::parse_xyz;
-
-fn load(name: &str) -> Molecule {
-    let path = PathBuf::from(env!("CARGO_MANIFEST_DIR"))
-        .join("tests/reference/rdkit_geometries")
-        .join(format!("{name}.xyz"));
-    let text = std::fs::read_to_string(&path).expect("benchmark geometry");
-    parse_xyz(&text, name).expect("valid XYZ").molecule
-}
+use support::reference_molecule;
 
 fn whole_analysis(c: &mut Criterion) {
     let settings = Settings::default();
     let mut group = c.benchmark_group("analysis_run");
     group.sample_size(20);
     for name in ["ammonia", "benzene", "c60"] {
-        let molecule = load(name);
+        let molecule = reference_molecule(name);
         group.bench_function(name, |b| {
             b.iter(|| Analysis::run(black_box(&molecule), black_box(&settings)).expect("analyses"))
         });

@@ -3,22 +3,19 @@
 //! 300 dpi of a figure 16 cm wide (≈ 1890 px; target under 200 ms), both from an analysis
 //! computed once outside the timing.
 
+mod support;
+
 use std::hint::black_box;
-use std::path::PathBuf;
 
 use criterion::{Criterion, criterion_group, criterion_main};
 use diptych::analysis::{Analysis, Settings};
-use diptych::chem::io::xyz::parse_xyz;
 use diptych::diagram::{
     Diagram, DiagramOptions, Resolution, SvgOptions, diagram_for, render_png, to_svg,
 };
+use support::reference_molecule;
 
 fn analysis_of(name: &str) -> Analysis {
-    let path = PathBuf::from(env!("CARGO_MANIFEST_DIR"))
-        .join("tests/reference/rdkit_geometries")
-        .join(format!("{name}.xyz"));
-    let text = std::fs::read_to_string(&path).expect("benchmark geometry");
-    let molecule = parse_xyz(&text, name).expect("valid XYZ").molecule;
+    let molecule = reference_molecule(name);
     Analysis::run(&molecule, &Settings::default()).expect("analyses")
 }
 

@@ -3,26 +3,18 @@
 //! computed once in the setup and not timed.
 //! Targets (issue 5): benzene < 1 ms, C60 < 20 ms.
 
+mod support;
+
 use std::hint::black_box;
-use std::path::PathBuf;
 
 use criterion::{Criterion, criterion_group, criterion_main};
-use diptych::chem::Molecule;
-use diptych::chem::io::xyz::parse_xyz;
 use diptych::eht::{EhtSettings, run};
 use diptych::hybrid::{HybridModel, HybridSettings, analyze};
-
-fn load(name: &str) -> Molecule {
-    let path = PathBuf::from(env!("CARGO_MANIFEST_DIR"))
-        .join("tests/reference/rdkit_geometries")
-        .join(format!("{name}.xyz"));
-    let text = std::fs::read_to_string(&path).expect("benchmark geometry");
-    parse_xyz(&text, name).expect("valid XYZ").molecule
-}
+use support::reference_molecule;
 
 fn hybrids(c: &mut Criterion) {
     for name in ["benzene", "c60"] {
-        let molecule = load(name);
+        let molecule = reference_molecule(name);
         let eht = run(&molecule, &EhtSettings::default()).expect("EHT runs");
         for (tag, model) in [
             ("geometric", HybridModel::Geometric),

@@ -3,23 +3,15 @@
 //! tests/reference/rdkit_geometries/; the extended Hückel calculation is done in setup.
 //! Targets (issue 6): benzene < 5 ms, C60 < 80 ms.
 
+mod support;
+
 use std::hint::black_box;
-use std::path::PathBuf;
 
 use criterion::{Criterion, criterion_group, criterion_main};
-use diptych::chem::Molecule;
-use diptych::chem::io::xyz::parse_xyz;
 use diptych::eht::{DEGENERACY_TOLERANCE_EV, EhtResult, EhtSettings, run};
 use diptych::link::{LINK_THRESHOLD, LevelSets, Links, link};
 use diptych::localize::{LocalizeOptions, localize_occupied};
-
-fn load(name: &str) -> Molecule {
-    let path = PathBuf::from(env!("CARGO_MANIFEST_DIR"))
-        .join("tests/reference/rdkit_geometries")
-        .join(format!("{name}.xyz"));
-    let text = std::fs::read_to_string(&path).expect("benchmark geometry");
-    parse_xyz(&text, name).expect("valid XYZ").molecule
-}
+use support::reference_molecule;
 
 fn localize_and_link(eht: &EhtResult) -> Links {
     let localized = localize_occupied(eht, &LocalizeOptions::default()).expect("localizes");
@@ -40,7 +32,7 @@ fn localize_and_link(eht: &EhtResult) -> Links {
 fn localize(c: &mut Criterion) {
     let settings = EhtSettings::default();
     for name in ["ammonia_experimental", "benzene", "aspirin", "c60"] {
-        let eht = run(&load(name), &settings).expect("EHT runs");
+        let eht = run(&reference_molecule(name), &settings).expect("EHT runs");
         let mut group = c.benchmark_group("localize_and_link");
         if name == "c60" {
             group.sample_size(20);
