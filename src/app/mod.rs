@@ -19,6 +19,7 @@ mod state;
 mod structure_view;
 mod theme;
 mod transition;
+mod walsh_plot;
 mod walsh_view;
 mod worker;
 

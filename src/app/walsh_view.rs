@@ -8,7 +8,7 @@
 
 use std::sync::Arc;
 
-use diptych::scan::{Coordinate, Lambda, Scan, ScanRequest};
+use diptych::scan::{Coordinate, Scan, ScanRequest};
 use eframe::egui;
 use egui_plot::{Legend, Line, Plot, PlotPoints, Points, Text, VLine};
 
@@ -16,6 +16,7 @@ use super::menus::Dialogs;
 use super::scan_job::ScanJob;
 use super::state::AppState;
 use super::theme::level_colour;
+use super::walsh_plot::{LAMBDA_TOP, WalshPlot};
 
 /// The coordinates offered in the window (the library's `Coordinate` without atoms).
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
@@ -94,6 +95,8 @@ pub struct WalshPanel {
     pub steps: usize,
     pub job: Option<ScanJob>,
     pub scan: Option<Arc<Scan>>,
+    /// What the plots draw, derived from `scan` when it arrived.
+    plot: Option<Arc<WalshPlot>>,
     pub error: Option<String>,
     pub lambda_model: LambdaModel,
 }
@@ -111,6 +114,7 @@ impl Default for WalshPanel {
             steps: 31,
             job: None,
             scan: None,
+            plot: None,
             error: None,
             lambda_model: LambdaModel::Geometric,
         }
@@ -135,7 +139,10 @@ impl WalshPanel {
         };
         match job.poll() {
             Some(Ok(scan)) => {
-                self.scan = Some(Arc::new(scan));
+                let scan = Arc::new(scan);
+                // Everything drawn is derived once here, not every frame.
+                self.plot = Some(Arc::new(WalshPlot::new(Arc::clone(&scan))));
+                self.scan = Some(scan);
                 self.error = None;
                 self.job = None;
             }
@@ -317,13 +324,12 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
     let ink = ui.visuals().text_color();
     let mut clicked_at = None;
 
-    let (low, high) = energy_window(&scan);
-    // Room on the right for the end labels.
-    let (x_first, x_last) = (
-        scan.request.from.min(scan.request.to),
-        scan.request.from.max(scan.request.to),
-    );
-    let (x_min, x_max) = (x_first, x_last + 0.22 * (x_last - x_first).max(1e-6));
+    let data = state.walsh.plot.clone();
+    let Some(data) = data.filter(|data| Arc::ptr_eq(&data.scan, &scan)) else {
+        return;
+    };
+    let (low, high) = data.energy_window;
+    let (x_min, x_max) = data.x_bounds;
     let response = Plot::new("walsh energies")
         .default_x_bounds(x_min, x_max)
         .height(available * 0.55)
@@ -333,33 +339,28 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
         .default_y_bounds(low, high)
         .allow_scroll(false)
         .show(ui, |plot| {
-            for curve in &scan.curves {
+            for curve in &data.curves {
                 let colour = level_colour(&curve.label, ink);
-                let legend = curve.irrep.clone().unwrap_or_else(|| curve.label.clone());
-                for segment in segments(&scan, &curve.energies) {
-                    let last = segment.last().copied();
+                for segment in &curve.segments {
                     plot.line(
-                        Line::new(legend.clone(), PlotPoints::from(segment))
+                        Line::new(curve.legend.clone(), PlotPoints::from(segment.clone()))
                             .color(colour)
                             .width(1.8),
                     );
-                    if let Some([x, y]) = last
-                        && curve.energies.last().copied().flatten().is_some()
-                        && (low..=high).contains(&y)
-                    {
-                        plot.text(
-                            // No name: end labels stay out of the legend, whose
-                            // entries take their colour from the curves.
-                            Text::new(
-                                "",
-                                [x, y].into(),
-                                egui::RichText::new(end_label(curve))
-                                    .color(colour)
-                                    .size(13.0),
-                            )
-                            .anchor(egui::Align2::LEFT_CENTER),
-                        );
-                    }
+                }
+                if let Some(([x, y], text)) = &curve.end
+                    && (low..=high).contains(y)
+                {
+                    plot.text(
+                        // No name: end labels stay out of the legend, whose entries take
+                        // their colour from the curves.
+                        Text::new(
+                            "",
+                            [*x, *y].into(),
+                            egui::RichText::new(text).color(colour).size(13.0),
+                        )
+                        .anchor(egui::Align2::LEFT_CENTER),
+                    );
                 }
             }
             if let Some(value) = marker {
@@ -384,7 +385,7 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
             "localized MOs",
         );
     });
-    let groups = lambda_groups(&scan, state.walsh.lambda_model.key());
+    let groups = data.lambdas(state.walsh.lambda_model == LambdaModel::Localized);
     let response = Plot::new("walsh lambda")
         .default_x_bounds(x_min, x_max)
         .height(available * 0.22)
@@ -394,31 +395,17 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
         .default_y_bounds(0.0, LAMBDA_TOP)
         .allow_scroll(false)
         .show(ui, |plot| {
-            for group in &groups {
-                let finite: Vec<Option<f64>> = group
-                    .values
-                    .iter()
-                    .map(|value| match value {
-                        Some(Lambda::Finite(lambda)) => Some(*lambda),
-                        _ => None,
-                    })
-                    .collect();
-                for segment in segments(&scan, &finite) {
-                    plot.line(Line::new(group.name.clone(), PlotPoints::from(segment)).width(1.8));
+            for group in groups {
+                for segment in &group.segments {
+                    plot.line(
+                        Line::new(group.name.clone(), PlotPoints::from(segment.clone())).width(1.8),
+                    );
                 }
-                // A pure p orbital (λ → ∞) is drawn at the top edge, marked as such.
-                let pure: Vec<[f64; 2]> = group
-                    .values
-                    .iter()
-                    .zip(&scan.points)
-                    .filter(|(value, _)| matches!(value, Some(Lambda::PureP)))
-                    .map(|(_, point)| [point.value, LAMBDA_TOP])
-                    .collect();
-                if !pure.is_empty() {
+                if !group.pure_p.is_empty() {
                     plot.points(
                         Points::new(
                             format!("{} pure p (λ = ∞)", group.name),
-                            PlotPoints::from(pure),
+                            PlotPoints::from(group.pure_p.clone()),
                         )
                         .radius(4.0),
                     );
@@ -433,7 +420,6 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
         clicked_at = response.inner;
     }
 
-    let sums: Vec<Option<f64>> = scan.points.iter().map(|p| p.sum_occupied_ev).collect();
     let response = Plot::new("walsh sum")
         .default_x_bounds(x_min, x_max)
         .height(available * 0.18)
@@ -442,11 +428,11 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
         .x_axis_label(scan.request.coordinate.describe())
         .allow_scroll(false)
         .show(ui, |plot| {
-            for segment in segments(&scan, &sums) {
+            for segment in &data.sums {
                 plot.line(
                     Line::new(
                         "sum of occupied orbital energies",
-                        PlotPoints::from(segment),
+                        PlotPoints::from(segment.clone()),
                     )
                     .color(ink),
                 );
@@ -484,56 +470,6 @@ pub enum LambdaModel {
     Localized,
 }
 
-impl LambdaModel {
-    /// The model's name in the scan's `LambdaKey`.
-    fn key(self) -> &'static str {
-        match self {
-            LambdaModel::Geometric => "geometric",
-            LambdaModel::Localized => "localized",
-        }
-    }
-}
-
-/// Hybrids of one model whose λ agree at every point (symmetry-equivalent bonds), drawn
-/// as one curve named after all of them.
-struct LambdaGroup {
-    name: String,
-    values: Vec<Option<Lambda>>,
-}
-
-fn lambda_groups(scan: &Scan, model: &str) -> Vec<LambdaGroup> {
-    let same = |a: &[Option<Lambda>], b: &[Option<Lambda>]| {
-        a.len() == b.len()
-            && a.iter().zip(b).all(|pair| match pair {
-                (Some(Lambda::Finite(x)), Some(Lambda::Finite(y))) => (x - y).abs() < 1e-4,
-                (x, y) => x == y,
-            })
-    };
-    let mut groups: Vec<LambdaGroup> = Vec::new();
-    for series in scan.lambdas.iter().filter(|s| s.key.model == model) {
-        let short = series
-            .name
-            .trim_start_matches("λ ")
-            .trim_start_matches(model)
-            .trim()
-            .to_string();
-        match groups.iter_mut().find(|g| same(&g.values, &series.values)) {
-            Some(group) => {
-                group.name.push_str(", ");
-                group.name.push_str(&short);
-            }
-            None => groups.push(LambdaGroup {
-                name: short,
-                values: series.values.clone(),
-            }),
-        }
-    }
-    groups
-}
-
-/// The top of the λ plot; pure p orbitals (λ = ∞) are marked there.
-const LAMBDA_TOP: f64 = 8.0;
-
 /// Sets the document's geometry to scan point `index` (recorded as one undoable edit by
 /// the frame's history diff).
 pub fn take_point_geometry(state: &mut AppState, scan: &Scan, index: usize) {
@@ -559,57 +495,4 @@ pub fn take_point_geometry(state: &mut AppState, scan: &Scan, index: usize) {
         point.value,
         scan.request.coordinate.unit()
     );
-}
-
-/// The curve's name, and its label at the last point when the symmetry there renames it
-/// (ammonia's 3a1 becomes 1a2″ when planar).
-fn end_label(curve: &diptych::scan::Curve) -> String {
-    match curve.labels.last().cloned().flatten() {
-        Some(last) if last != curve.label => format!("{} → {last}", curve.label),
-        _ => curve.label.clone(),
-    }
-}
-
-/// Unbroken runs of (coordinate, value) where the value exists.
-fn segments(scan: &Scan, values: &[Option<f64>]) -> Vec<Vec<[f64; 2]>> {
-    let mut runs = Vec::new();
-    let mut current = Vec::new();
-    for (point, value) in scan.points.iter().zip(values) {
-        match value {
-            Some(y) if y.is_finite() => current.push([point.value, *y]),
-            _ => {
-                if !current.is_empty() {
-                    runs.push(std::mem::take(&mut current));
-                }
-            }
-        }
-    }
-    if !current.is_empty() {
-        runs.push(current);
-    }
-    runs
-}
-
-/// From just below the lowest level to 6 eV above the highest occupied one along the
-/// scan (the empty levels far above say little in a Walsh argument).
-fn energy_window(scan: &Scan) -> (f64, f64) {
-    let levels = scan
-        .curves
-        .iter()
-        .flat_map(|curve| curve.energies.iter().zip(&curve.occupancies));
-    let mut low = f64::INFINITY;
-    let mut homo_high = f64::NEG_INFINITY;
-    for (energy, occupancy) in levels {
-        let Some(energy) = energy else {
-            continue;
-        };
-        low = low.min(*energy);
-        if occupancy.is_some_and(|o| o > 1e-6) {
-            homo_high = homo_high.max(*energy);
-        }
-    }
-    if !low.is_finite() || !homo_high.is_finite() {
-        return (-30.0, 5.0);
-    }
-    (low - 1.0, homo_high + 6.0)
 }
