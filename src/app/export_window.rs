@@ -27,9 +27,8 @@ pub struct ExportPanel {
     pub options: SvgOptions,
     pub format: ExportFormat,
     pub dpi: f64,
-    /// What the preview texture shows (options and diagram revision) and the texture.
-    preview: Option<(String, egui::TextureHandle)>,
-    pub preview_error: Option<String>,
+    /// The preview for (options, diagram revision): the image, or why there is none.
+    preview: Option<(SvgOptions, u64, Result<egui::TextureHandle, String>)>,
 }
 
 impl Default for ExportPanel {
@@ -40,7 +39,6 @@ impl Default for ExportPanel {
             format: ExportFormat::Svg,
             dpi: 300.0,
             preview: None,
-            preview_error: None,
         }
     }
 }
@@ -64,42 +62,45 @@ impl ExportPanel {
         .map_err(|error| error.to_string())
     }
 
-    /// Redraws the preview when the options or the diagram changed.
+    /// Redraws the preview when the options or the diagram changed (an error is kept
+    /// the same way, so a refused option is not retried every frame).
     fn refresh_preview(
         &mut self,
         ctx: &egui::Context,
         diagram: &Diagram,
-        key: String,
+        revision: u64,
         show_energies: bool,
     ) {
+        let options = self.options_for(show_energies);
         if self
             .preview
             .as_ref()
-            .is_some_and(|(shown, _)| *shown == key)
+            .is_some_and(|(shown, shown_revision, _)| {
+                *shown == options && *shown_revision == revision
+            })
         {
             return;
         }
-        let options = self.options_for(show_energies);
         let image = validate(diagram, &options)
             .map_err(|error| error.to_string())
             .map(|()| diptych::diagram::to_svg(diagram, &options))
             .and_then(|svg| {
                 rasterize(&svg, Resolution::PixelWidth(PREVIEW_WIDTH))
                     .map_err(|error| error.to_string())
-            });
-        match image {
-            Ok(pixmap) => {
+            })
+            .map(|pixmap| {
                 let size = [pixmap.width() as usize, pixmap.height() as usize];
                 let colour = egui::ColorImage::from_rgba_premultiplied(size, pixmap.data());
-                let texture =
-                    ctx.load_texture("export preview", colour, egui::TextureOptions::LINEAR);
-                self.preview = Some((key, texture));
-                self.preview_error = None;
-            }
-            Err(message) => {
-                self.preview = None;
-                self.preview_error = Some(message);
-            }
+                ctx.load_texture("export preview", colour, egui::TextureOptions::LINEAR)
+            });
+        self.preview = Some((options, revision, image));
+    }
+
+    /// Why the options cannot be exported, if they cannot.
+    pub fn preview_error(&self) -> Option<&str> {
+        match &self.preview {
+            Some((_, _, Err(message))) => Some(message),
+            _ => None,
         }
     }
 }
@@ -117,31 +118,28 @@ pub fn show(ctx: &egui::Context, state: &mut AppState, dialogs: &Dialogs) {
             options_form(ui, state);
             ui.separator();
             let show_energies = state.project.view.show_energies;
-            let key = format!(
-                "{:?}|{}|{show_energies}",
-                state.export.options, state.diagram_revision
-            );
             if let Some(diagram) = &state.diagram {
+                let revision = state.diagram_revision;
                 state
                     .export
-                    .refresh_preview(ui.ctx(), diagram, key, show_energies);
+                    .refresh_preview(ui.ctx(), diagram, revision, show_energies);
             }
-            match (&state.export.preview, &state.export.preview_error) {
-                (_, Some(error)) => {
+            match &state.export.preview {
+                Some((_, _, Err(error))) => {
                     ui.colored_label(ui.visuals().error_fg_color, error);
                 }
-                (Some((_, texture)), None) => {
+                Some((_, _, Ok(texture))) => {
                     let width = ui.available_width().min(PREVIEW_WIDTH as f32);
                     let size = texture.size_vec2() * (width / texture.size_vec2().x);
                     ui.add(egui::Image::new((texture.id(), size)).alt_text("Export preview"));
                 }
-                (None, None) => {
+                None => {
                     ui.weak("No diagram yet.");
                 }
             }
             ui.separator();
             ui.horizontal(|ui| {
-                let ready = state.diagram.is_some() && state.export.preview_error.is_none();
+                let ready = state.diagram.is_some() && state.export.preview_error().is_none();
                 let (label, extension) = match state.export.format {
                     ExportFormat::Svg => ("Export SVG…", "svg"),
                     ExportFormat::Png => ("Export PNG…", "png"),
