@@ -298,22 +298,14 @@ impl AppState {
     pub fn open(&mut self, path: PathBuf) {
         match open_path(&path) {
             Ok(opened) => {
-                self.project = opened.project;
-                self.status = if opened.notices.is_empty() {
+                let status = if opened.notices.is_empty() {
                     format!("Opened {}", path.display())
                 } else {
                     opened.notices.join("; ")
                 };
                 self.remember_recent(&path);
-                self.path = Some(path);
-                self.history.clear();
-                self.builder.template_live = false;
-                self.selected_atom = None;
-                self.selected_level = None;
-                self.energy_window = None;
-                self.camera = Camera::facing(&self.project.molecule);
-                self.document_changed();
-                self.dirty = false;
+                self.replace_document(opened.project, Some(path));
+                self.status = status;
             }
             Err(error) => {
                 self.error_dialog = Some(format!("Could not open the file.\n\n{error}"));
@@ -348,6 +340,11 @@ impl AppState {
         self.selected_atom = None;
         self.selected_level = None;
         self.energy_window = None;
+        self.transition = None;
+        self.map.hybrid = None;
+        // A scan belongs to the molecule it was made on; its points must not be applied
+        // to another one.
+        self.walsh.forget_scan();
         self.camera = Camera::facing(&self.project.molecule);
         self.document_changed();
         self.dirty = false;

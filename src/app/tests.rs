@@ -58,6 +58,13 @@ fn step_until(
     }
 }
 
+/// The point group of the analysis on screen.
+fn point_group_of(harness: &Harness<'static, DiptychApp>) -> String {
+    let analysis = harness.state().state.analysis.as_ref().expect("analysed");
+    let symmetry = analysis.symmetry.as_ref().expect("symmetry found");
+    symmetry.group.to_string()
+}
+
 /// The highest occupied canonical orbital of the analysis on screen.
 fn homo_of(harness: &Harness<'static, DiptychApp>) -> diptych::analysis::OrbitalSummary {
     let analysis = harness.state().state.analysis.as_ref().expect("analysed");
@@ -296,17 +303,7 @@ fn editing_a_bond_angle_reshapes_the_molecule_and_is_undoable() {
     assert!((angle - 100.0).abs() < 1e-6, "{angle}");
     // H2 turned within the H1–N–H2 plane: the three H–N–H angles now all differ, which
     // leaves no symmetry element (C1).
-    let group = harness
-        .state()
-        .state
-        .analysis
-        .as_ref()
-        .unwrap()
-        .symmetry
-        .as_ref()
-        .unwrap()
-        .group
-        .to_string();
+    let group = point_group_of(&harness);
     assert_eq!(group, "C1");
     harness.get_by_label("Inspector").click();
     harness.run_steps(1);
@@ -396,17 +393,7 @@ fn flattening_a_pyramidal_template_moves_the_lone_pair_level() {
     let planar = homo(&harness);
     assert_eq!(planar.label.as_deref(), Some("1a2''"), "{planar:?}");
     assert!(planar.energy_ev > pyramidal.energy_ev);
-    let group = harness
-        .state()
-        .state
-        .analysis
-        .as_ref()
-        .unwrap()
-        .symmetry
-        .as_ref()
-        .unwrap()
-        .group
-        .to_string();
+    let group = point_group_of(&harness);
     assert_eq!(group, "D3h");
 }
 
@@ -675,9 +662,7 @@ fn a_walsh_scan_runs_off_the_ui_thread_and_a_point_sets_the_geometry() {
     // The geometry change is seen by the frame's history diff like any other edit.
     harness.state_mut().state.document_changed();
     wait_for_analysis(&mut harness);
-    let analysis = harness.state().state.analysis.clone().expect("analysis");
-    let group = analysis.symmetry.as_ref().map(|s| s.group.to_string());
-    assert_eq!(group.as_deref(), Some("D3h"), "planar ammonia");
+    assert_eq!(point_group_of(&harness), "D3h", "planar ammonia");
     assert_ne!(harness.state().state.project.molecule, original);
 }
 
@@ -917,4 +902,24 @@ fn shift_drag_in_the_structure_view_moves_the_selected_atom() {
     harness.state_mut().state.undo();
     harness.run_steps(2);
     assert_eq!(harness.state().state.project.molecule, before);
+}
+
+#[test]
+fn opening_another_molecule_drops_the_old_scan() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    harness.state_mut().state.walsh.open = true;
+    harness.run_steps(2);
+    harness.get_by_label("Run scan").click();
+    step_until(&mut harness, "the scan", |app| {
+        app.state.walsh.scan.is_some()
+    });
+    // Phosphine has as many atoms as ammonia: the old scan's geometries must not apply.
+    let phosphine =
+        std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("demo_molecules/phosphine.xyz");
+    harness.state_mut().state.open(phosphine);
+    wait_for_analysis(&mut harness);
+    assert_eq!(harness.state().state.project.molecule.name, "phosphine");
+    assert!(harness.state().state.walsh.scan.is_none());
+    harness.get_by_label_contains("Run a scan");
 }

@@ -132,6 +132,16 @@ impl WalshPanel {
         }
     }
 
+    /// Drops the last scan and stops a running one (the document was replaced).
+    pub fn forget_scan(&mut self) {
+        if let Some(job) = self.job.take() {
+            job.cancel();
+        }
+        self.scan = None;
+        self.plot = None;
+        self.error = None;
+    }
+
     /// Takes a finished scan from the job.
     pub fn poll(&mut self) {
         let Some(job) = &self.job else {
