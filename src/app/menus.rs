@@ -260,7 +260,7 @@ pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
             }
             if ui
                 .add_enabled(
-                    state.map.current().is_some(),
+                    state.current_map().is_some(),
                     egui::Button::new("Export orbital map as SVG…"),
                 )
                 .clicked()

@@ -92,11 +92,14 @@ impl Default for MapPanel {
 }
 
 impl MapPanel {
-    /// The finished map of the orbital now shown, if any.
-    pub fn current(&self) -> Option<Arc<OrbitalMap>> {
-        self.shown
-            .as_ref()
-            .and_then(|(_, result)| result.as_ref().ok().cloned())
+    /// The finished map, if it was made from `analysis` (a map of an older analysis is
+    /// not offered for export while the new one is computed).
+    pub fn current_for(&self, analysis: &Arc<Analysis>) -> Option<Arc<OrbitalMap>> {
+        self.shown.as_ref().and_then(|(key, result)| {
+            (key.analysis == Arc::as_ptr(analysis) as usize)
+                .then(|| result.as_ref().ok().cloned())
+                .flatten()
+        })
     }
 
     /// Starts computing `orbital`'s map unless it is shown or under way.

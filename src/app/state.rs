@@ -485,9 +485,16 @@ impl AppState {
         self.recent_files.truncate(MAX_RECENT);
     }
 
+    /// The Inspector's orbital map, if it belongs to the analysis on screen.
+    pub fn current_map(&self) -> Option<Arc<diptych::orbital_map::OrbitalMap>> {
+        self.analysis
+            .as_ref()
+            .and_then(|analysis| self.map.current_for(analysis))
+    }
+
     /// Writes the orbital map shown in the Inspector as SVG (the library's writer).
     pub fn export_map(&mut self, path: PathBuf) {
-        let Some(map) = self.map.current() else {
+        let Some(map) = self.current_map() else {
             self.error_dialog = Some("There is no orbital map to export yet.".into());
             return;
         };

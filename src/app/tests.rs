@@ -749,11 +749,11 @@ fn a_selected_level_shows_its_orbital_map() {
     wait_for_analysis(&mut harness);
     harness.state_mut().state.selected_level = Some(LevelRef { ladder: 0, key: 3 });
     step_until(&mut harness, "the map", |app| {
-        app.state.map.current().is_some()
+        app.state.current_map().is_some()
     });
     harness.run_steps(2);
     harness.get_by_label("Export map SVG…");
-    let map = harness.state().state.map.current().expect("map");
+    let map = harness.state().state.current_map().expect("map");
     // The lone pair has lobes of both signs (a p-rich hybrid) and a nodal line.
     assert!(map.contours.iter().any(|line| line.level > 0.0));
     assert!(map.contours.iter().any(|line| line.level < 0.0));
@@ -767,22 +767,21 @@ fn a_selected_level_shows_its_orbital_map() {
     harness.run_steps(1);
     step_until(&mut harness, "the new plane's map", |app| {
         app.state
-            .map
-            .current()
+            .current_map()
             .is_some_and(|m| m.plane != map.plane)
     });
     // A plane through N normal to the N–H1 bond: N sits on it, H1 is off it.
     harness.state_mut().state.map.plane =
         super::orbital_map_view::PlaneChoice::NormalToBond([0, 1]);
     step_until(&mut harness, "the bond-normal map", |app| {
-        app.state.map.current().is_some_and(|m| {
+        app.state.current_map().is_some_and(|m| {
             matches!(
                 m.plane.kind,
                 diptych::orbital_map::PlaneKind::NormalToBond { .. }
             )
         })
     });
-    let map = harness.state().state.map.current().expect("map");
+    let map = harness.state().state.current_map().expect("map");
     let height = |index: usize| {
         map.atoms
             .iter()
@@ -800,7 +799,7 @@ fn a_selected_level_shows_its_orbital_map() {
     harness.get_by_label("Contours at ±").type_text("0.1");
     harness.run_steps(1);
     step_until(&mut harness, "the map with one level", |app| {
-        app.state.map.current().is_some_and(|m| {
+        app.state.current_map().is_some_and(|m| {
             m.contours
                 .iter()
                 .all(|line| (line.level.abs() - 0.1).abs() < 1e-12)
@@ -820,7 +819,7 @@ fn a_hybrid_of_a_bond_can_be_mapped_and_edit_menu_symmetrizes() {
     harness.run_steps(2);
     harness.get_by_label("map N0").click();
     step_until(&mut harness, "the hybrid's map", |app| {
-        app.state.map.current().is_some_and(|m| {
+        app.state.current_map().is_some_and(|m| {
             matches!(
                 m.orbital.reference,
                 Some(diptych::orbital_map::OrbitalRef::Hybrid(_))
