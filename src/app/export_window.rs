@@ -52,10 +52,16 @@ impl ExportPanel {
         }
     }
 
-    /// The file's bytes for `diagram` in the chosen format.
-    pub fn render(&self, diagram: &Diagram, show_energies: bool) -> Result<Vec<u8>, String> {
+    /// The file's bytes for `diagram` in `format` (the file name's, which the save dialog
+    /// may have changed from the one chosen here).
+    pub fn render(
+        &self,
+        diagram: &Diagram,
+        show_energies: bool,
+        format: ExportFormat,
+    ) -> Result<Vec<u8>, String> {
         let options = self.options_for(show_energies);
-        match self.format {
+        match format {
             ExportFormat::Svg => export_svg(diagram, &options).map(String::into_bytes),
             ExportFormat::Png => export_png(diagram, &options, Resolution::Dpi(self.dpi)),
         }

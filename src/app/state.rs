@@ -401,7 +401,7 @@ impl AppState {
             .extension()
             .and_then(|e| e.to_str())
             .map(str::to_ascii_lowercase);
-        let panel_format = match extension.as_deref() {
+        let format = match extension.as_deref() {
             Some("svg") => super::export_window::ExportFormat::Svg,
             Some("png") => super::export_window::ExportFormat::Png,
             _ => {
@@ -412,9 +412,9 @@ impl AppState {
                 return;
             }
         };
-        let previous = std::mem::replace(&mut self.export.format, panel_format);
-        let rendered = self.export.render(diagram, self.project.view.show_energies);
-        self.export.format = previous;
+        let rendered = self
+            .export
+            .render(diagram, self.project.view.show_energies, format);
         match rendered {
             Ok(bytes) => self.write_export(&path, &bytes, "the diagram"),
             Err(message) => {
