@@ -81,6 +81,35 @@ def chloromethane(rccl, rch, hch):
     return pyramidal("C", "H", rch, hch) + [("Cl", 0.0, 0.0, rccl)]
 
 
+def octahedral(center, ligand, r):
+    atoms = [(center, 0.0, 0.0, 0.0)]
+    for axis in range(3):
+        for sign in (1, -1):
+            xyz = [0.0, 0.0, 0.0]
+            xyz[axis] = sign * r
+            atoms.append((ligand, *xyz))
+    return atoms
+
+
+def diatomic(a, b, r):
+    # Bond along z, centred on the origin.
+    return [(a, 0.0, 0.0, -r / 2), (b, 0.0, 0.0, r / 2)]
+
+
+def diborane(rbb, rbh_t, rbh_b, hbh_t):
+    # D2h: B on the x axis, bridging H on the y axis, terminal H in the xz plane. With
+    # B-B 1.763 and B-H(bridge) 1.33 the bridge angle H-B-H follows as 97.0 degrees.
+    half = rbb / 2
+    y_bridge = math.sqrt(rbh_b**2 - half**2)
+    h = math.radians(hbh_t) / 2
+    xt, zt = half + rbh_t * math.cos(h), rbh_t * math.sin(h)
+    atoms = [("B", half, 0.0, 0.0), ("B", -half, 0.0, 0.0), ("H", 0.0, y_bridge, 0.0), ("H", 0.0, -y_bridge, 0.0)]
+    for sx in (1, -1):
+        for sz in (1, -1):
+            atoms.append(("H", sx * xt, 0.0, sz * zt))
+    return atoms
+
+
 MOLECULES = {
     "ammonia": (pyramidal("N", "H", 1.012, 106.7), "N-H 1.012, H-N-H 106.7"),
     "phosphine": (pyramidal("P", "H", 1.420, 93.3), "P-H 1.420, H-P-H 93.3"),
@@ -93,6 +122,10 @@ MOLECULES = {
     "hydrogen_cyanide": (hcn(1.065, 1.153), "C-H 1.065, C-N 1.153, linear"),
     "cyclopropane": (cyclopropane(1.510, 1.089, 115.1), "C-C 1.510, C-H 1.089, H-C-H 115.1"),
     "chloromethane": (chloromethane(1.776, 1.090, 110.5), "C-Cl 1.776, C-H 1.090, H-C-H 110.5"),
+    "sulfur_hexafluoride": (octahedral("S", "F", 1.561), "S-F 1.561, Oh"),
+    "diborane": (diborane(1.763, 1.19, 1.33, 121.5), "B-B 1.763, B-H terminal 1.19, B-H bridge 1.33, H-B-H terminal 121.5, D2h"),
+    "dioxygen": (diatomic("O", "O", 1.2075), "O-O 1.2075, triplet ground state"),
+    "carbon_monoxide": (diatomic("C", "O", 1.128), "C-O 1.128"),
 }
 
 if __name__ == "__main__":

@@ -10,7 +10,8 @@ mod stages;
 
 use crate::chem::molecule::{Molecule, MoleculeError};
 use crate::eht::{self, EhtResult, EhtSettings};
-use crate::hybrid::{HybridAnalysis, HybridSettings};
+use crate::hybrid::{HybridAnalysis, HybridKind, HybridModel, HybridSettings};
+use crate::localized::{LocalizationSettings, LocalizedKind, LocalizedPicture};
 use crate::symmetry::{self, Symmetry, SymmetrySettings, SymmetrySummary};
 
 /// Method options of the document. Every field has a default so that older project files
@@ -24,8 +25,10 @@ pub struct Settings {
     pub symmetry: SymmetrySettings,
     /// Extended Hückel options (K, weighting, parameter overrides).
     pub eht: EhtSettings,
-    /// Hybrid model, lone-pair convention, per-atom overrides.
+    /// Hybrid model and lone-pair convention.
     pub hybrid: HybridSettings,
+    /// How the localized orbitals are found (intrinsic bond orbitals by default).
+    pub localization: LocalizationSettings,
 }
 
 impl Default for Settings {
@@ -35,6 +38,7 @@ impl Default for Settings {
             symmetry: SymmetrySettings::default(),
             eht: EhtSettings::default(),
             hybrid: HybridSettings::default(),
+            localization: LocalizationSettings::default(),
         }
     }
 }
@@ -60,6 +64,14 @@ pub enum Stage {
 /// A stage that failed, with a message for the user.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
 pub struct StageError {
+    pub stage: Stage,
+    pub message: String,
+}
+
+/// A remark of a stage that succeeded: what the user must know to read its result (a
+/// multicentre bond, an open shell, a centre a model could not describe).
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct StageNote {
     pub stage: Stage,
     pub message: String,
 }
@@ -105,14 +117,16 @@ pub struct AoShare {
     pub share: f64,
 }
 
-/// One localized orbital (bond, antibond, lone pair) as the reports and panels show it.
+/// One level of the localized ladder as the reports and panels show it.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct LocalizedSummary {
-    /// "bond", "antibond", "lone_pair", "pi", "pi_antibond", "multicentre".
-    pub kind: String,
+    pub kind: LocalizedKind,
     pub atoms: Vec<usize>,
     pub energy_ev: f64,
+    /// Electrons of this level in the canonical density, Σ_j n_j |⟨b|ψ_j⟩|².
     pub occupancy: f64,
+    /// Electrons the Lewis structure puts here (2, 1, 0 or an open-shell share).
+    pub lewis_occupancy: f64,
     /// e.g. "σ(N–H)", "n(N)".
     pub label: String,
     /// Σ over occupied canonical MOs of the link weights: how much of this orbital the
@@ -129,20 +143,21 @@ pub struct HybridEntry {
     pub center: usize,
     /// The bonded partner, or None for a lone pair.
     pub partner: Option<usize>,
-    /// "bond", "pi", "lone_pair" or "vacant".
-    pub kind: String,
+    pub kind: HybridKind,
     /// Hybridization index λ of sp^λ; None for a pure p orbital (λ → ∞).
     pub lambda: Option<f64>,
     pub s_percent: f64,
     pub p_percent: f64,
+    pub d_percent: f64,
+    /// The fraction of an orbital this hybrid is (below 1 on an over-complete atom).
+    pub share: f64,
     /// ε(sp^λ) = (ε_s + λ ε_p)/(1 + λ), eV (hybrid models only).
     pub energy_ev: Option<f64>,
     /// Angle between the hybrid and the internuclear axis, degrees.
     pub bending_degrees: Option<f64>,
     /// Unit vector the hybrid points along (molecule frame).
     pub direction: [f64; 3],
-    /// "geometric", "max_overlap" or "localized".
-    pub model: String,
+    pub model: HybridModel,
 }
 
 /// Weight of canonical MO `canonical` in localized orbital `localized` (DESIGN §4.6);
@@ -174,11 +189,15 @@ pub struct Analysis {
     pub eht: Option<EhtResult>,
     /// The canonical MOs in ascending energy (empty if the MO stage failed).
     pub orbitals: Vec<OrbitalSummary>,
-    /// Hybrids of every centre (geometric or maximum-overlap model).
+    /// The localized picture read from the wavefunction: localized orbitals, Lewis
+    /// structure, the wavefunction's hybrids.
+    pub picture: Option<LocalizedPicture>,
+    /// Hybrids of the chosen two-centre model (the geometric model when the chosen model
+    /// is the wavefunction's own, so that both are at hand).
     pub hybrids: Option<HybridAnalysis>,
     /// The hybrids of the chosen model as a flat list (for reports and JSON).
     pub hybrid_entries: Vec<HybridEntry>,
-    /// The localized ladder: hybrid-model bonds and lone pairs, or Pipek–Mezey orbitals.
+    /// The localized ladder, ascending in energy.
     pub localized: Vec<LocalizedSummary>,
     /// Canonical ↔ localized weights above 1e-4 (degenerate sets summed).
     pub links: Vec<LinkSummary>,
@@ -186,6 +205,8 @@ pub struct Analysis {
     /// minus its energy here (eV); empty when there is no lone pair.
     pub level_shifts: Vec<f64>,
     pub errors: Vec<StageError>,
+    /// Remarks of the stages, shown beside their results.
+    pub notes: Vec<StageNote>,
 }
 
 impl Analysis {
@@ -193,103 +214,57 @@ impl Analysis {
     pub fn run(molecule: &Molecule, settings: &Settings) -> Result<Analysis, AnalysisError> {
         molecule.validate()?;
         let electrons = usize::try_from(molecule.electron_count()).unwrap_or(0);
-        let mut errors = Vec::new();
-        let symmetry = match symmetry::detect(molecule, &settings.symmetry) {
-            Ok(found) => Some(found),
-            Err(error) => {
-                errors.push(StageError {
-                    stage: Stage::Symmetry,
-                    message: error.to_string(),
-                });
-                None
-            }
-        };
+        let mut log = stages::Log::default();
+        let symmetry = log.keep(Stage::Symmetry, symmetry::detect(molecule, &settings.symmetry));
         let symmetry_summary = symmetry
             .as_ref()
             .map(|found| symmetry::summarize(found, molecule));
         let symmetrized = symmetry
             .as_ref()
             .map(|found| symmetry::symmetrize(molecule, found));
-        let eht = match eht::run(molecule, &settings.eht) {
-            Ok(result) => Some(result),
-            Err(error) => {
-                errors.push(StageError {
-                    stage: Stage::Orbitals,
-                    message: error.to_string(),
-                });
-                None
+        let mut eht = log.keep(Stage::Orbitals, eht::run(molecule, &settings.eht));
+        let picture = eht.as_ref().and_then(|solution| {
+            log.keep(
+                Stage::Localization,
+                crate::localized::analyze(molecule, solution, &settings.localization),
+            )
+        });
+        if let Some(found) = &picture {
+            log.notes(Stage::Localization, &found.notes);
+        }
+        let hybrids = match (&eht, &picture) {
+            (Some(solution), Some(found)) => {
+                Some(stages::model_hybrids(molecule, solution, found, &settings.hybrid, &mut log))
             }
+            _ => None,
         };
-        // The localized-MO model reads its hybrids from the Pipek–Mezey orbitals below; the
-        // geometric model still supplies the lone-pair directions for the switch.
-        let mut hybrid_settings = settings.hybrid.clone();
-        if hybrid_settings.model == crate::hybrid::HybridModel::Localized {
-            hybrid_settings.model = crate::hybrid::HybridModel::Geometric;
-        }
-        let hybrids = eht
-            .as_ref()
-            .map(|solution| crate::hybrid::analyze(molecule, solution, &hybrid_settings));
-        if let Some(found) = &hybrids {
-            for error in &found.errors {
-                errors.push(StageError {
-                    stage: Stage::Hybrids,
-                    message: error.to_string(),
-                });
-            }
-        }
-        let mut eht = eht;
+        let hybrid_entries = stages::hybrid_entries(molecule, picture.as_ref(), hybrids.as_ref(), settings.hybrid.model);
         let mut level_shifts = Vec::new();
-        if let (Some(solution), Some(found)) = (eht.as_mut(), &hybrids) {
-            match stages::apply_lone_pair_switch(solution, found, settings.lone_pair_mixing) {
+        if let Some(solution) = eht.as_mut() {
+            match stages::apply_lone_pair_switch(solution, &hybrid_entries, settings.lone_pair_mixing) {
                 Ok(shifts) => level_shifts = shifts,
-                Err(message) => errors.push(StageError {
-                    stage: Stage::Orbitals,
-                    message,
-                }),
+                Err(message) => log.fail(Stage::Orbitals, message),
             }
         }
         let mut orbitals = eht.as_ref().map(orbital_summaries).unwrap_or_default();
         if let (Some(found), Some(solution)) = (&symmetry, &eht) {
-            let labels = symmetry::label_orbitals(
-                found,
-                molecule,
-                &solution.basis.orbitals,
-                &solution.coefficients,
-                &solution.energies,
-                &solution.overlap,
-                settings.symmetry.numbering,
-            );
-            for (orbital, label) in orbitals.iter_mut().zip(labels) {
-                orbital.irrep = label.irrep.map(|irrep| irrep.to_string());
-                orbital.label = Some(label.text);
-            }
+            label_summaries(&mut orbitals, found, molecule, solution, settings);
         }
         let mut localized = Vec::new();
         let mut links = Vec::new();
-        let mut hybrid_entries = hybrids
-            .as_ref()
-            .map(stages::hybrid_entries)
-            .unwrap_or_default();
-        if let Some(solution) = &eht {
-            match stages::localized_ladder(molecule, solution, hybrids.as_ref(), &settings.hybrid) {
-                Ok((ladder, pm_hybrids)) => {
-                    localized = ladder;
-                    if settings.hybrid.model == crate::hybrid::HybridModel::Localized {
-                        hybrid_entries = pm_hybrids;
-                    }
-                }
-                Err(message) => errors.push(StageError {
-                    stage: Stage::Localization,
-                    message,
-                }),
-            }
-            match stages::links(solution, &orbitals, &mut localized) {
+        if let (Some(solution), Some(found)) = (&eht, &picture) {
+            let (ladder, vectors) = stages::ladder(molecule, solution, found, hybrids.as_ref(), settings.hybrid.model);
+            localized = ladder;
+            match stages::links(solution, &orbitals, &vectors, &mut localized) {
                 Ok(found) => links = found,
-                Err(message) => errors.push(StageError {
-                    stage: Stage::Links,
-                    message,
-                }),
+                Err(message) => log.fail(Stage::Links, message),
             }
+        }
+        if !settings.lone_pair_mixing && !level_shifts.is_empty() {
+            log.note(
+                Stage::Links,
+                "lone-pair mixing is off: the canonical MOs are the held first-order solution, so the localized ladder's occupancies and weights are taken against it and are approximate",
+            );
         }
         Ok(Analysis {
             molecule: molecule.clone(),
@@ -301,13 +276,38 @@ impl Analysis {
             symmetrized,
             eht,
             orbitals,
+            picture,
             hybrids,
             hybrid_entries,
             localized,
             links,
             level_shifts,
-            errors,
+            errors: log.errors,
+            notes: log.notes,
         })
+    }
+}
+
+/// Puts the irrep labels on the orbital summaries.
+fn label_summaries(
+    orbitals: &mut [OrbitalSummary],
+    found: &Symmetry,
+    molecule: &Molecule,
+    solution: &EhtResult,
+    settings: &Settings,
+) {
+    let labels = symmetry::label_orbitals(
+        found,
+        molecule,
+        &solution.basis.orbitals,
+        &solution.coefficients,
+        &solution.energies,
+        &solution.overlap,
+        settings.symmetry.numbering,
+    );
+    for (orbital, label) in orbitals.iter_mut().zip(labels) {
+        orbital.irrep = label.irrep.map(|irrep| irrep.to_string());
+        orbital.label = Some(label.text);
     }
 }
 

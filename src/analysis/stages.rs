@@ -1,17 +1,17 @@
-//! The stages of `Analysis::run` after the extended Hückel solution: the lone-pair mixing
-//! switch (DESIGN §4.6), the localized ladder from the chosen hybrid model (§4.4) or from
-//! Pipek–Mezey orbitals (§4.5), and the canonical ↔ localized weights (§4.6).
+//! The stages of `Analysis::run` after the extended Hückel solution and the localized
+//! picture: the hybrid model of the settings (DESIGN §4.4), the lone-pair mixing switch
+//! (§4.6), the localized ladder and the canonical ↔ localized weights (§4.6).
 
 use nalgebra::{DMatrix, DVector};
 
-use super::{HybridEntry, LinkSummary, LocalizedSummary, OrbitalSummary};
+use super::{HybridEntry, LinkSummary, LocalizedSummary, OrbitalSummary, Stage, StageError, StageNote};
 use crate::chem::ao::AngularKind;
 use crate::chem::molecule::Molecule;
 use crate::eht::EhtResult;
-use crate::hybrid::{HybridAnalysis, HybridKind, HybridModel, HybridSettings};
-use crate::link::{LevelSets, link};
-use crate::localize::{LocalizeOptions, describe, localize_occupied};
-use crate::lone_pair_mixing::compare_mixing;
+use crate::hybrid::{self, HybridAnalysis, HybridKind, HybridModel, HybridSettings};
+use crate::localized::switch::compare_mixing;
+use crate::localized::weights::{LevelSets, Metric, link};
+use crate::localized::{LocalizedPicture, ladder, orthonormal, true_occupancies};
 
 /// Weights below this are left out of the link list (DESIGN §4.6: entries above 1e-4).
 const LINK_LIST_THRESHOLD: f64 = 1e-4;
@@ -19,32 +19,154 @@ const LINK_LIST_THRESHOLD: f64 = 1e-4;
 /// (the solver's own tolerance for sharing electrons in a set).
 const DEGENERACY_EV: f64 = crate::eht::DEGENERACY_TOLERANCE_EV;
 
-/// Each lone pair's atomic orbital: the centre's p orbital along the lone-pair hybrid's
-/// direction (issue text of the switch: "the centre's p orbital … along the lone-pair
-/// direction"), as a vector over the whole basis.
-fn lone_pair_orbitals(eht: &EhtResult, hybrids: &HybridAnalysis) -> Vec<DVector<f64>> {
-    let mut vectors = Vec::new();
-    for centre in &hybrids.centres {
-        let Some(range) = eht.basis.atom_ranges.get(centre.atom) else {
+/// The errors and notes of the stages, in order.
+#[derive(Default)]
+pub(super) struct Log {
+    pub errors: Vec<StageError>,
+    pub notes: Vec<StageNote>,
+}
+
+impl Log {
+    /// The value, or None with the error recorded.
+    pub fn keep<T, E: std::fmt::Display>(&mut self, stage: Stage, result: Result<T, E>) -> Option<T> {
+        match result {
+            Ok(value) => Some(value),
+            Err(error) => {
+                self.fail(stage, error.to_string());
+                None
+            }
+        }
+    }
+
+    pub fn fail(&mut self, stage: Stage, message: impl Into<String>) {
+        self.errors.push(StageError {
+            stage,
+            message: message.into(),
+        });
+    }
+
+    pub fn note(&mut self, stage: Stage, message: impl Into<String>) {
+        self.notes.push(StageNote {
+            stage,
+            message: message.into(),
+        });
+    }
+
+    pub fn notes(&mut self, stage: Stage, messages: &[String]) {
+        for message in messages {
+            self.note(stage, message.clone());
+        }
+    }
+}
+
+/// The chosen two-centre model on the wavefunction's Lewis structure, or the geometric
+/// model (kept quietly beside the wavefunction's hybrids) when the chosen model is the
+/// wavefunction's own.
+pub(super) fn model_hybrids(
+    molecule: &Molecule,
+    eht: &EhtResult,
+    picture: &LocalizedPicture,
+    settings: &HybridSettings,
+    log: &mut Log,
+) -> HybridAnalysis {
+    let chosen = settings.model != HybridModel::Localized;
+    let mut run = settings.clone();
+    if !chosen {
+        run.model = HybridModel::Geometric;
+    }
+    let (_, sp_index) = hybrid::atom_orbital_indices(molecule, eht);
+    let (specs, notes) =
+        hybrid::centres::from_picture(picture, molecule, &|atom| sp_index[atom].is_some());
+    let found = hybrid::analyze(molecule, eht, &run, specs);
+    if chosen {
+        log.notes(Stage::Hybrids, &notes);
+        log.notes(Stage::Hybrids, &found.notes);
+        for error in &found.errors {
+            log.fail(Stage::Hybrids, error.to_string());
+        }
+    }
+    found
+}
+
+/// The flat hybrid list of the chosen model; atoms the two-centre models skip keep the
+/// wavefunction's hybrids (their `model` says so). Atoms without p functions (hydrogen)
+/// have no hybrid to report.
+pub(super) fn hybrid_entries(
+    molecule: &Molecule,
+    picture: Option<&LocalizedPicture>,
+    hybrids: Option<&HybridAnalysis>,
+    model: HybridModel,
+) -> Vec<HybridEntry> {
+    let mut entries = Vec::new();
+    let described = |atom: usize| {
+        model != HybridModel::Localized
+            && hybrids.is_some_and(|found| found.centre(atom).is_some())
+    };
+    for atom in 0..molecule.atoms.len() {
+        if described(atom) {
+            if let Some(centre) = hybrids.and_then(|found| found.centre(atom)) {
+                entries.extend(centre.hybrids.iter().map(|h| HybridEntry {
+                    center: atom,
+                    partner: h.partner,
+                    kind: h.kind,
+                    lambda: h.lambda,
+                    s_percent: h.s_percent,
+                    p_percent: h.p_percent,
+                    d_percent: 0.0,
+                    share: 1.0,
+                    energy_ev: Some(h.energy_ev),
+                    bending_degrees: h.bending_degrees,
+                    direction: h.direction,
+                    model: centre.model,
+                }));
+            }
+            continue;
+        }
+        let Some(atom_hybrids) = picture.and_then(|p| p.hybrids.get(atom)) else {
             continue;
         };
-        for hybrid in centre
-            .hybrids
-            .iter()
-            .filter(|h| h.kind == HybridKind::LonePair)
-        {
-            let mut vector = DVector::zeros(eht.basis.len());
-            for mu in range.clone() {
-                vector[mu] = match eht.basis.orbitals[mu].kind {
-                    AngularKind::Px => hybrid.direction[0],
-                    AngularKind::Py => hybrid.direction[1],
-                    AngularKind::Pz => hybrid.direction[2],
-                    _ => 0.0,
-                };
-            }
-            if vector.norm() > 1e-8 {
-                vectors.push(vector.normalize());
-            }
+        let layout = picture.map(|p| &p.layout);
+        let has_p = layout.is_some_and(|l| l.kinds[l.ranges[atom].clone()].iter().any(|k| k.l() == 1));
+        if !has_p {
+            continue;
+        }
+        entries.extend(atom_hybrids.hybrids.iter().map(|h| HybridEntry {
+            center: atom,
+            partner: h.partner,
+            kind: h.kind,
+            lambda: h.shape.lambda,
+            s_percent: 100.0 * h.shape.s_share,
+            p_percent: 100.0 * h.shape.p_share,
+            d_percent: 100.0 * h.shape.d_share,
+            share: h.share,
+            energy_ev: None,
+            bending_degrees: h.bending_degrees,
+            direction: h.shape.direction,
+            model: HybridModel::Localized,
+        }));
+    }
+    entries
+}
+
+/// Each lone pair's atomic orbital: the centre's p orbital along the lone-pair hybrid's
+/// direction, as a vector over the whole basis.
+fn lone_pair_orbitals(eht: &EhtResult, entries: &[HybridEntry]) -> Vec<DVector<f64>> {
+    let mut vectors = Vec::new();
+    for entry in entries.iter().filter(|e| e.kind == HybridKind::LonePair) {
+        let Some(range) = eht.basis.atom_ranges.get(entry.center) else {
+            continue;
+        };
+        let mut vector = DVector::zeros(eht.basis.len());
+        for mu in range.clone() {
+            vector[mu] = match eht.basis.orbitals[mu].kind {
+                AngularKind::Px => entry.direction[0],
+                AngularKind::Py => entry.direction[1],
+                AngularKind::Pz => entry.direction[2],
+                _ => 0.0,
+            };
+        }
+        if vector.norm() > 1e-8 {
+            vectors.push(vector.normalize());
         }
     }
     vectors
@@ -55,10 +177,10 @@ fn lone_pair_orbitals(eht: &EhtResult, hybrids: &HybridAnalysis) -> Vec<DVector<
 /// per orbital shown, the energy in the other state minus the energy shown.
 pub(super) fn apply_lone_pair_switch(
     eht: &mut EhtResult,
-    hybrids: &HybridAnalysis,
+    entries: &[HybridEntry],
     mixing_on: bool,
 ) -> Result<Vec<f64>, String> {
-    let lone_pairs = lone_pair_orbitals(eht, hybrids);
+    let lone_pairs = lone_pair_orbitals(eht, entries);
     if lone_pairs.is_empty() {
         return Ok(Vec::new());
     }
@@ -72,133 +194,65 @@ pub(super) fn apply_lone_pair_switch(
                 *slot = -comparison.shifts[off];
             }
         }
-        Ok(shifts)
-    } else {
-        let off = comparison.off.solution;
-        eht.energies = off.energies;
-        eht.coefficients = off.coefficients;
-        eht.occupations = off.occupations;
-        eht.open_shell = off.open_shell;
-        eht.sum_occupied_energy = eht
-            .energies
-            .iter()
-            .zip(&eht.occupations)
-            .map(|(e, n)| e * n)
-            .sum();
-        Ok(comparison.shifts)
+        return Ok(shifts);
     }
-}
-
-/// The flat hybrid list of the geometric or maximum-overlap model.
-pub(super) fn hybrid_entries(hybrids: &HybridAnalysis) -> Vec<HybridEntry> {
-    hybrids
-        .centres
+    let off = comparison.off.solution;
+    eht.energies = off.energies;
+    eht.coefficients = off.coefficients;
+    eht.occupations = off.occupations;
+    eht.open_shell = off.open_shell;
+    eht.orthonormal.coefficients = orthonormal::to_orthonormal(
+        &eht.overlap,
+        &eht.orthonormal.orthogonalizer,
+        &eht.coefficients,
+    );
+    eht.sum_occupied_energy = eht
+        .energies
         .iter()
-        .flat_map(|centre| {
-            centre.hybrids.iter().map(move |hybrid| HybridEntry {
-                center: centre.atom,
-                partner: hybrid.partner,
-                kind: hybrid.kind.as_str().into(),
-                lambda: hybrid.lambda,
-                s_percent: hybrid.s_percent,
-                p_percent: hybrid.p_percent,
-                energy_ev: Some(hybrid.energy_ev),
-                bending_degrees: hybrid.bending_degrees,
-                direction: hybrid.direction,
-                model: centre.model.as_str().into(),
-            })
-        })
-        .collect()
+        .zip(&eht.occupations)
+        .map(|(e, n)| e * n)
+        .sum();
+    Ok(comparison.shifts)
 }
 
-/// The localized ladder of the chosen model, and for the localized-MO model the hybrids
-/// read from the Pipek–Mezey orbitals.
-pub(super) fn localized_ladder(
+/// The localized ladder on the hybrids of the chosen model, as summaries (AO
+/// coefficients for maps) and as vectors over the orthonormal basis.
+pub(super) fn ladder(
     molecule: &Molecule,
     eht: &EhtResult,
+    picture: &LocalizedPicture,
     hybrids: Option<&HybridAnalysis>,
-    settings: &HybridSettings,
-) -> Result<(Vec<LocalizedSummary>, Vec<HybridEntry>), String> {
-    if settings.model == HybridModel::Localized {
-        let localized =
-            localize_occupied(eht, &LocalizeOptions::default()).map_err(|e| e.to_string())?;
-        let described = describe(
-            &localized.orbitals,
-            &eht.overlap,
-            &eht.hamiltonian,
-            &eht.basis,
-            molecule,
-        )
-        .map_err(|e| e.to_string())?;
-        // Hydrogen's part of a bond is its 1s: no hybrid to report.
-        let has_p = |atom: usize| {
-            molecule
-                .atoms
-                .get(atom)
-                .is_some_and(|a| a.element.period() > 1)
-        };
-        let entries = described
-            .iter()
-            .flat_map(|orbital| {
-                orbital
-                    .hybrids
-                    .iter()
-                    .filter(|h| has_p(h.atom))
-                    .map(|hybrid| HybridEntry {
-                        center: hybrid.atom,
-                        partner: hybrid.partner,
-                        kind: if hybrid.partner.is_some() {
-                            "bond"
-                        } else {
-                            "lone_pair"
-                        }
-                        .into(),
-                        lambda: hybrid.lambda,
-                        s_percent: 100.0 * hybrid.s_share,
-                        p_percent: 100.0 * hybrid.p_share,
-                        energy_ev: None,
-                        bending_degrees: hybrid.bending_deg,
-                        direction: hybrid.direction.map_or([0.0; 3], |d| [d.x, d.y, d.z]),
-                        model: "localized".into(),
-                    })
-            })
-            .collect();
-        let ladder = described
-            .into_iter()
-            .enumerate()
-            .map(|(k, orbital)| LocalizedSummary {
-                kind: match orbital.kind {
-                    crate::localize::LocalizedKind::LonePair => "lone_pair".into(),
-                    crate::localize::LocalizedKind::Bond => "bond".into(),
-                    crate::localize::LocalizedKind::MultiCentre => "multicentre".into(),
-                },
-                atoms: orbital.atoms,
-                energy_ev: orbital.energy_ev,
-                occupancy: 2.0,
-                label: orbital.label,
-                captured: 0.0,
-                coefficients: localized.orbitals.column(k).iter().copied().collect(),
-            })
-            .collect();
-        return Ok((ladder, entries));
+    model: HybridModel,
+) -> (Vec<LocalizedSummary>, DMatrix<f64>) {
+    let mut atom_hybrids = picture.hybrids.clone();
+    if let (true, Some(found)) = (model != HybridModel::Localized, hybrids) {
+        hybrid::substitute::substitute(&mut atom_hybrids, found, &picture.layout);
     }
-    let Some(found) = hybrids else {
-        return Ok((Vec::new(), Vec::new()));
-    };
-    let ladder = found
-        .localized
+    let built = ladder::build(
+        &atom_hybrids,
+        &picture.orbitals,
+        &picture.units,
+        &picture.layout,
+        &eht.orthonormal.hamiltonian,
+        molecule,
+    );
+    let ao = &eht.orthonormal.orthogonalizer * &built.vectors;
+    let summaries = built
+        .levels
         .iter()
-        .map(|orbital| LocalizedSummary {
-            kind: orbital.kind.as_str().into(),
-            atoms: orbital.atoms.clone(),
-            energy_ev: orbital.energy_ev,
-            occupancy: orbital.occupancy,
-            label: orbital.label.clone(),
+        .enumerate()
+        .map(|(k, level)| LocalizedSummary {
+            kind: level.kind,
+            atoms: level.atoms.clone(),
+            energy_ev: level.energy_ev,
+            occupancy: level.lewis_occupancy,
+            lewis_occupancy: level.lewis_occupancy,
+            label: level.label.clone(),
             captured: 0.0,
-            coefficients: orbital.coefficients.clone(),
+            coefficients: ao.column(k).iter().copied().collect(),
         })
         .collect();
-    Ok((ladder, Vec::new()))
+    (summaries, built.vectors)
 }
 
 /// Degenerate-set ids of the canonical orbitals: same label (same irrep level) or, with
@@ -222,39 +276,32 @@ fn set_ids(orbitals: &[OrbitalSummary]) -> Vec<usize> {
     ids
 }
 
-/// Weights of every canonical set in every localized orbital; fills each localized
-/// orbital's captured share.
+/// Weights of every canonical set in every ladder level (vectors over the orthonormal
+/// basis); fills each level's true occupancy and captured share.
 pub(super) fn links(
     eht: &EhtResult,
     orbitals: &[OrbitalSummary],
+    vectors: &DMatrix<f64>,
     localized: &mut [LocalizedSummary],
 ) -> Result<Vec<LinkSummary>, String> {
     if localized.is_empty() {
         return Ok(Vec::new());
     }
-    let n = eht.basis.len();
-    let mut matrix = DMatrix::zeros(n, localized.len());
-    for (k, orbital) in localized.iter().enumerate() {
-        if orbital.coefficients.len() != n {
-            return Err(format!(
-                "localized orbital {} has the wrong length",
-                orbital.label
-            ));
-        }
-        matrix.set_column(k, &DVector::from_column_slice(&orbital.coefficients));
-    }
     let ids = set_ids(orbitals);
+    let canonical = &eht.orthonormal.coefficients;
     let found = link(
-        &matrix,
-        &eht.coefficients,
-        &eht.overlap,
+        vectors,
+        canonical,
+        Metric::Orthonormal,
         &eht.occupations,
         LevelSets::Ids(&ids),
         LINK_LIST_THRESHOLD,
     )
     .map_err(|e| e.to_string())?;
-    for (orbital, captured) in localized.iter_mut().zip(&found.captured) {
+    let occupancies = true_occupancies(vectors, canonical, &eht.occupations);
+    for ((orbital, captured), occupancy) in localized.iter_mut().zip(&found.captured).zip(occupancies) {
         orbital.captured = *captured;
+        orbital.occupancy = occupancy;
     }
     Ok(found
         .entries

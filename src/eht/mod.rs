@@ -33,8 +33,8 @@ pub use overlap::{BOHR_IN_ANGSTROM, overlap_matrix};
 pub use params::{ElementParameters, ParameterSet, ShellParameters};
 pub use population::{Populations, mulliken};
 pub use solve::{
-    DEGENERACY_TOLERANCE_EV, Ionization, SINGULAR_OVERLAP_THRESHOLD, Solution, aufbau,
-    density_matrix, koopmans, solve,
+    DEGENERACY_TOLERANCE_EV, Ionization, OrthonormalForm, SINGULAR_OVERLAP_THRESHOLD, Solution,
+    aufbau, density_matrix, koopmans, solve, solve_orthonormal,
 };
 
 /// Everything that can go wrong in an extended Hückel calculation.
@@ -124,6 +124,8 @@ pub struct EhtResult {
     pub sum_occupied_energy: f64,
     /// Smallest eigenvalue of S.
     pub smallest_overlap_eigenvalue: f64,
+    /// S^(−½), H̃ and C̃ of Löwdin's orthonormal basis (the localized picture's basis).
+    pub orthonormal: OrthonormalForm,
 }
 
 impl EhtResult {
@@ -178,7 +180,7 @@ pub fn run_with_parameters(
     let electrons = electrons as usize;
     let overlap = overlap_matrix(&basis);
     let hamiltonian = hamiltonian_matrix(&basis, &overlap, settings.k, settings.weighted);
-    let solution = match solve(&hamiltonian, &overlap, electrons) {
+    let (solution, orthonormal) = match solve_orthonormal(&hamiltonian, &overlap, electrons) {
         Err(EhtError::SingularOverlap {
             smallest_eigenvalue,
             ..
@@ -215,6 +217,7 @@ pub fn run_with_parameters(
         populations,
         sum_occupied_energy,
         smallest_overlap_eigenvalue: solution.smallest_overlap_eigenvalue,
+        orthonormal,
     })
 }
 

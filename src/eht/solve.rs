@@ -94,9 +94,33 @@ pub fn koopmans(energies: &[f64], occupations: &[f64]) -> Vec<Ionization> {
         .collect()
 }
 
+/// The problem in Löwdin's orthonormal basis, a by-product of [`solve_orthonormal`]: the
+/// localized picture works in this basis (its atomic orbitals are the orthonormalized AOs).
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+pub struct OrthonormalForm {
+    /// X = S^(−½): column μ holds the orthonormalized AO μ̃ over the original AOs, so a
+    /// vector c̃ over the orthonormal basis is X c̃ over the AOs.
+    pub orthogonalizer: DMatrix<f64>,
+    /// H̃ = X H X (eV).
+    pub hamiltonian: DMatrix<f64>,
+    /// C̃ = S^(½) C: the MOs over the orthonormal basis (orthonormal columns, same order
+    /// and signs as `Solution::coefficients`).
+    pub coefficients: DMatrix<f64>,
+}
+
 /// Solves HC = SCE for `electrons` electrons. Errors: mismatched or non-finite matrices,
 /// near-singular S (`SingularOverlap`), no electrons, more electrons than 2 × orbitals.
 pub fn solve(h: &DMatrix<f64>, s: &DMatrix<f64>, electrons: usize) -> Result<Solution, EhtError> {
+    solve_orthonormal(h, s, electrons).map(|(solution, _)| solution)
+}
+
+/// [`solve`], also returning the problem in the orthonormal basis (no extra cost: X, H̃ and
+/// C̃ are intermediate results of Löwdin's method).
+pub fn solve_orthonormal(
+    h: &DMatrix<f64>,
+    s: &DMatrix<f64>,
+    electrons: usize,
+) -> Result<(Solution, OrthonormalForm), EhtError> {
     let n = h.nrows();
     if n == 0 || h.ncols() != n || s.nrows() != n || s.ncols() != n {
         return Err(EhtError::DimensionMismatch {
@@ -145,14 +169,17 @@ pub fn solve(h: &DMatrix<f64>, s: &DMatrix<f64>, electrons: usize) -> Result<Sol
             h_prime[(j, i)] = mean;
         }
     }
-    let h_eigen = SymmetricEigen::try_new(h_prime, EIGEN_EPS, EIGEN_MAX_ITERATIONS)
+    let h_eigen = SymmetricEigen::try_new(h_prime.clone(), EIGEN_EPS, EIGEN_MAX_ITERATIONS)
         .ok_or(EhtError::EigenFailure { matrix: "H'" })?;
     let mut order: Vec<usize> = (0..n).collect();
     order.sort_by(|&a, &b| h_eigen.eigenvalues[a].total_cmp(&h_eigen.eigenvalues[b]));
     let energies: Vec<f64> = order.iter().map(|&k| h_eigen.eigenvalues[k]).collect();
-    let sorted = DMatrix::from_fn(n, n, |i, j| h_eigen.eigenvectors[(i, order[j])]);
-    let mut coefficients = &x * sorted;
-    for mut column in coefficients.column_iter_mut() {
+    let mut sorted = DMatrix::from_fn(n, n, |i, j| h_eigen.eigenvectors[(i, order[j])]);
+    let mut coefficients = &x * &sorted;
+    for (mut column, mut orthonormal) in coefficients
+        .column_iter_mut()
+        .zip(sorted.column_iter_mut())
+    {
         // Sign convention: the largest coefficient (first on ties) is positive.
         let mut best = 0;
         for (i, value) in column.iter().enumerate() {
@@ -162,17 +189,24 @@ pub fn solve(h: &DMatrix<f64>, s: &DMatrix<f64>, electrons: usize) -> Result<Sol
         }
         if column[best] < 0.0 {
             column.neg_mut();
+            orthonormal.neg_mut();
         }
     }
     let (occupations, open_shell) = aufbau(&energies, electrons);
-    Ok(Solution {
+    let solution = Solution {
         energies,
         coefficients,
         occupations,
         open_shell,
         electrons,
         smallest_overlap_eigenvalue: smallest,
-    })
+    };
+    let form = OrthonormalForm {
+        orthogonalizer: x,
+        hamiltonian: h_prime,
+        coefficients: sorted,
+    };
+    Ok((solution, form))
 }
 
 /// Aufbau occupations for ascending `energies`; returns the occupations and whether a level

@@ -1,30 +1,30 @@
-//! Directed hybrids of the localized picture (DESIGN §4.4).
+//! The geometric and maximum-overlap hybrid models (DESIGN §4.4), applied on the Lewis
+//! structure read from the wavefunction (`crate::localized`): which partners, how many π
+//! orbitals and lone pairs each centre has come from the localized orbitals, so CO is
+//! treated as C≡O whatever the distances suggest.
 //!
-//! - [`centres`]: the Lewis bookkeeping of each centre (σ partners, π bonds, lone pairs,
-//!   steric number, formal charges) and the π directions;
+//! - [`centres`]: the centre descriptions from the localized picture;
 //! - [`coulson`]: the geometric model (Coulson, *Valence*, 1952);
 //! - [`max_overlap`]: the maximum-overlap model (Löwdin symmetric orthogonalization,
 //!   iterated over centres; Coulson and Moffitt, Phil. Mag. 40, 1 (1949) for bent bonds);
 //! - [`energies`]: ε(sp^λ) = (ε_s + λ ε_p)/(1+λ);
-//! - [`bonds`]: the localized ladder (σ/σ*, π/π*, lone pairs) from 2×2 problems with the
-//!   extended Hückel H and S.
+//! - [`substitute`]: a model's hybrids put in place of the wavefunction's for the ladder.
 //!
-//! [`analyze`] runs them all for one molecule. Results are partial: a centre that cannot be
-//! described is recorded in `errors` and the others are still reported.
+//! [`analyze`] runs a model for the centres it can describe. Results are partial: a centre
+//! that cannot be described is recorded in `errors` and the others are still reported;
+//! the wavefunction's own hybrids stand in for it.
 
-pub mod bonds;
 pub mod centres;
 pub mod coulson;
 pub mod energies;
 pub mod max_overlap;
-
-use std::collections::BTreeMap;
+pub mod substitute;
 
 use nalgebra::{Vector3, Vector4};
 use serde::{Deserialize, Serialize};
 use thiserror::Error;
 
-pub use bonds::{LocalizedKind, LocalizedOrbital, localized_ladder};
+pub use crate::localized::hybrids::{HybridKind, HybridModel};
 pub use centres::CentreSpec;
 pub use coulson::{CoulsonError, GeometricHybrids, LonePairConvention, SpHybrid};
 pub use energies::{gap_fraction, hybrid_energy};
@@ -33,41 +33,12 @@ use crate::chem::ao::AngularKind;
 use crate::chem::molecule::{Molecule, angle_between, any_perpendicular};
 use crate::eht::EhtResult;
 
-/// Which model gives the hybrids.
-#[derive(Clone, Copy, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum HybridModel {
-    /// Coulson's relations from the bond angles; maximum overlap where they do not apply.
-    #[default]
-    Geometric,
-    /// Maximum overlap, iterated to self-consistency.
-    MaxOverlap,
-    /// Read from Pipek–Mezey localized MOs: provided by the localization stage, not here.
-    Localized,
-}
-
-impl HybridModel {
-    /// The JSON name: "geometric", "max_overlap" or "localized" (DESIGN §5.5).
-    pub fn as_str(self) -> &'static str {
-        match self {
-            HybridModel::Geometric => "geometric",
-            HybridModel::MaxOverlap => "max_overlap",
-            HybridModel::Localized => "localized",
-        }
-    }
-}
-
 /// Settings of the hybrid stage.
 #[derive(Clone, Debug, Default, PartialEq, Serialize, Deserialize)]
 #[serde(default)]
 pub struct HybridSettings {
     pub model: HybridModel,
     pub lone_pair_convention: LonePairConvention,
-    /// Lone-pair count per atom (0-based index), replacing the electron count.
-    pub lone_pair_overrides: BTreeMap<usize, u8>,
-    /// Formal charge per atom; atoms not listed get 0 or, for a charged molecule, an
-    /// automatic ±1 where their count demands it.
-    pub formal_charges: BTreeMap<usize, i32>,
 }
 
 /// Why a centre (or the stage) could not be described. Each names the atoms concerned.
@@ -78,85 +49,16 @@ pub enum HybridError {
         "the orbital basis covers {basis_atoms} atoms but the molecule has {atoms}; hybrids need the extended Hückel result of this molecule"
     )]
     BasisMismatch { atoms: usize, basis_atoms: usize },
-    #[error(
-        "atom {atom} ({element}): the bonds leave {electrons} nonbonding electrons (negative); check the bond orders or set its formal charge"
-    )]
-    NegativeLonePairs {
-        atom: usize,
-        element: String,
-        electrons: i32,
-    },
-    #[error(
-        "atom {atom} ({element}) needs {needed} valence orbitals for its bonds and lone pairs, more than its 4 s,p orbitals; check the bond orders or the lone-pair count"
-    )]
-    TooManyOrbitals {
-        atom: usize,
-        element: String,
-        needed: usize,
-    },
-    #[error(
-        "atom {atom} ({element}) is hypervalent ({needed} bonds and lone pairs): s,p hybrids cannot describe it; only the delocalized picture is given for this centre"
-    )]
-    Hypervalent {
-        atom: usize,
-        element: String,
-        needed: usize,
-    },
     #[error("atom {atom} has a non-finite coordinate")]
     NonFiniteCoordinate { atom: usize },
-    #[error("bond {a}–{b} names a missing atom or the same atom twice; it was ignored")]
-    InvalidBond { a: usize, b: usize },
-    #[error("bond {a}–{b} has order {order}; at most triple bonds are described")]
-    BondOrderTooHigh { a: usize, b: usize, order: u8 },
-    #[error(
-        "atom {atom} ({element}) without valence p orbitals has {partners} partners: multi-centre bonding is outside the two-centre picture"
-    )]
-    MultiCentre {
-        atom: usize,
-        element: String,
-        partners: usize,
-    },
     #[error(
         "atom {atom}: its partners' orbitals are linearly dependent on it (coincident bond directions)"
     )]
     DependentPartners { atom: usize },
-    #[error("the orbitals of bond {a}–{b} are linearly dependent (singular 2×2 overlap)")]
-    SingularPair { a: usize, b: usize },
     #[error(
         "the maximum-overlap iteration did not converge in {iterations} steps (last change {change:.2e}); the last hybrids are shown"
     )]
     NotConverged { iterations: usize, change: f64 },
-    #[error(
-        "hybrids from localized MOs are provided by the localization stage; geometric hybrids are shown here"
-    )]
-    LocalizedModelUnavailable,
-}
-
-/// What a hybrid of a centre is used for.
-#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
-pub enum HybridKind {
-    /// σ bond hybrid toward `partner`.
-    Bond,
-    /// The orbital of a π bond to `partner`: pure p at a planar centre, with a little s
-    /// at a pyramidalized one (the geometric model puts the s left over by the σ bonds
-    /// there, as in the π-orbital axis analysis of fullerenes).
-    Pi,
-    LonePair,
-    /// Empty orbital completing the set.
-    Vacant,
-}
-
-impl HybridKind {
-    /// The JSON name: "bond", "pi", "lone_pair" or "vacant".
-    pub fn as_str(self) -> &'static str {
-        match self {
-            HybridKind::Bond => "bond",
-            HybridKind::Pi => "pi",
-            HybridKind::LonePair => "lone_pair",
-            HybridKind::Vacant => "vacant",
-        }
-    }
 }
 
 /// One orbital of a centre's orthonormal s,p set.
@@ -227,8 +129,6 @@ pub struct HybridAnalysis {
     /// The model asked for.
     pub model: HybridModel,
     pub centres: Vec<CentreHybrids>,
-    /// The localized ladder, ascending in energy.
-    pub localized: Vec<LocalizedOrbital>,
     pub errors: Vec<HybridError>,
     pub notes: Vec<String>,
     /// Iterations of the maximum-overlap loop (0 when no centre needed it).
@@ -286,14 +186,9 @@ pub fn describe_hybrid(
 ) -> Hybrid {
     let norm = local.norm();
     let v = if norm > 0.0 { local / norm } else { *local };
-    let s_share = v[0] * v[0];
-    let lambda = (s_share > 1e-12).then(|| (1.0 - s_share) / s_share);
-    let p = Vector3::new(v[1], v[2], v[3]);
-    let direction = if p.norm() > 1e-12 {
-        p.normalize()
-    } else {
-        Vector3::zeros()
-    };
+    let kinds = [AngularKind::S, AngularKind::Px, AngularKind::Py, AngularKind::Pz];
+    let shape = crate::localized::read_shape(v.as_slice(), &kinds);
+    let direction = Vector3::from(shape.direction);
     let bending = match (kind, axis) {
         (HybridKind::Bond, Some(u)) if direction.norm() > 0.0 => {
             Some(angle_between(&direction, u).to_degrees())
@@ -311,13 +206,13 @@ pub fn describe_hybrid(
         partner,
         local: [v[0], v[1], v[2], v[3]],
         coefficients,
-        lambda,
-        s_percent: 100.0 * s_share,
-        p_percent: 100.0 * (1.0 - s_share),
-        direction: [direction.x, direction.y, direction.z],
+        lambda: shape.lambda,
+        s_percent: 100.0 * shape.s_share,
+        p_percent: 100.0 * shape.p_share,
+        direction: shape.direction,
         bending_degrees: bending,
-        energy_ev: hybrid_energy(eps_s, eps_p, lambda),
-        gap_fraction: gap_fraction(lambda),
+        energy_ev: hybrid_energy(eps_s, eps_p, shape.lambda),
+        gap_fraction: gap_fraction(shape.lambda),
     }
 }
 
@@ -335,9 +230,16 @@ struct State {
     notes: Vec<String>,
 }
 
-/// Runs the hybrid stage: centres, the chosen model, hybrid energies and the localized
-/// ladder. Never panics on molecule data; problems are in `errors` and `notes`.
-pub fn analyze(molecule: &Molecule, eht: &EhtResult, settings: &HybridSettings) -> HybridAnalysis {
+/// Runs the geometric or maximum-overlap model (`settings.model`) for the centres
+/// `specs` (from [`centres::from_picture`]). Never panics on molecule data; problems are in
+/// `errors` and `notes`. The localized model is not run here (it is the wavefunction's
+/// own reading): its result is empty.
+pub fn analyze(
+    molecule: &Molecule,
+    eht: &EhtResult,
+    settings: &HybridSettings,
+    specs: Vec<CentreSpec>,
+) -> HybridAnalysis {
     let mut analysis = HybridAnalysis {
         model: settings.model,
         converged: true,
@@ -366,40 +268,11 @@ pub fn analyze(molecule: &Molecule, eht: &EhtResult, settings: &HybridSettings) 
             .push(HybridError::NonFiniteCoordinate { atom });
         return analysis;
     }
-    // Bonds that name missing atoms or an atom twice are dropped (reported), so that
-    // nothing below indexes out of range.
-    let cleaned;
-    let molecule = if molecule
-        .bonds
-        .iter()
-        .any(|b| b.a == b.b || b.a.max(b.b) >= molecule.atoms.len())
-    {
-        let mut copy = molecule.clone();
-        copy.bonds.retain(|b| {
-            let bad = b.a == b.b || b.a.max(b.b) >= molecule.atoms.len();
-            if bad {
-                analysis
-                    .errors
-                    .push(HybridError::InvalidBond { a: b.a, b: b.b });
-            }
-            !bad
-        });
-        cleaned = copy;
-        &cleaned
-    } else {
-        molecule
-    };
-    let model = if settings.model == HybridModel::Localized {
-        analysis.errors.push(HybridError::LocalizedModelUnavailable);
-        HybridModel::Geometric
-    } else {
-        settings.model
-    };
+    if settings.model == HybridModel::Localized {
+        return analysis;
+    }
+    let model = settings.model;
     let (s_index, sp_index) = atom_orbital_indices(molecule, eht);
-    let classification = centres::classify(molecule, settings, &|atom| sp_index[atom].is_some());
-    analysis.errors.extend(classification.errors);
-    analysis.notes.extend(classification.notes);
-
     let position = |atom: usize| molecule.atoms[atom].position;
     let unit = |from: usize, to: usize| {
         let v = position(to) - position(from);
@@ -409,9 +282,9 @@ pub fn analyze(molecule: &Molecule, eht: &EhtResult, settings: &HybridSettings) 
             Vector3::z()
         }
     };
-    let mut states: Vec<State> = Vec::with_capacity(classification.centres.len());
+    let mut states: Vec<State> = Vec::new();
     let mut state_of: Vec<Option<usize>> = vec![None; molecule.atoms.len()];
-    for spec in classification.centres {
+    for spec in specs {
         let atom = spec.atom;
         let units: Vec<Vector3<f64>> = spec.sigma_partners.iter().map(|&p| unit(atom, p)).collect();
         let pi_dirs: Vec<Vector3<f64>> = spec.pi.iter().map(|(_, d)| *d).collect();
@@ -609,10 +482,6 @@ pub fn analyze(molecule: &Molecule, eht: &EhtResult, settings: &HybridSettings) 
         centre.notes = state.notes;
         analysis.centres.push(centre);
     }
-    let (localized, errors, notes) = localized_ladder(molecule, eht, &analysis.centres);
-    analysis.localized = localized;
-    analysis.errors.extend(errors);
-    analysis.notes.extend(notes);
     analysis
 }
 

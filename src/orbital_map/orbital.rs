@@ -116,8 +116,8 @@ pub fn resolve(analysis: &Analysis, reference: OrbitalRef) -> Result<ResolvedOrb
                 .map(|atom| atom.element.symbol())
                 .unwrap_or("?");
             let target = match entry.partner {
-                Some(partner) => format!("{} → atom {partner}", entry.kind.replace('_', " ")),
-                None => entry.kind.replace('_', " "),
+                Some(partner) => format!("{} → atom {partner}", entry.kind.as_str().replace('_', " ")),
+                None => entry.kind.as_str().replace('_', " "),
             };
             let mut atoms = vec![entry.center];
             atoms.extend(entry.partner);

@@ -148,7 +148,7 @@ fn hybrid_table(analysis: &Analysis) -> Table {
         .map(|entry| {
             vec![
                 atom_name(analysis, entry.center),
-                entry.kind.clone(),
+                entry.kind.as_str().to_string(),
                 entry
                     .partner
                     .map_or_else(String::new, |p| atom_name(analysis, p)),
@@ -157,7 +157,7 @@ fn hybrid_table(analysis: &Analysis) -> Table {
                 fixed(entry.p_percent, 1),
                 optional(entry.energy_ev, 3),
                 optional(entry.bending_degrees, 1),
-                entry.model.clone(),
+                entry.model.as_str().to_string(),
             ]
         })
         .collect();
@@ -193,7 +193,7 @@ fn localized_table(analysis: &Analysis) -> Table {
             vec![
                 index.to_string(),
                 orbital.label.clone(),
-                orbital.kind.clone(),
+                orbital.kind.as_str().to_string(),
                 atoms.join("–"),
                 fixed(orbital.energy_ev, 3),
                 fixed(orbital.occupancy, 2),

@@ -129,7 +129,7 @@ fn hybrid_table(analysis: &Analysis) -> String {
         text.push_str(&format!(
             "  {:<7} {:<10} {:<8} {:<12} {:>5.1}  {:>9}  {}\n",
             atom_name(analysis, entry.center),
-            entry.kind,
+            entry.kind.as_str(),
             entry.partner.map_or("–".into(), |p| atom_name(analysis, p)),
             lambda_text(entry.lambda),
             entry.s_percent,

@@ -183,10 +183,13 @@ impl PointData {
         for entry in analysis
             .hybrid_entries
             .iter()
-            .filter(|e| e.model == "localized" && (e.kind == "bond" || e.kind == "lone_pair"))
+            .filter(|e| {
+                e.model == HybridModel::Localized
+                    && matches!(e.kind, HybridKind::Bond | HybridKind::LonePair)
+            })
         {
             raw.push((
-                entry.model.clone(),
+                entry.model.as_str().to_string(),
                 entry.center,
                 entry.partner,
                 Lambda::from_option(entry.lambda),

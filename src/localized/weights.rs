@@ -1,10 +1,12 @@
 //! Correlation weights between localized orbitals and canonical MOs (DESIGN §4.6): the
 //! weight of canonical MO ψ_j in localized orbital b_k is
 //! w_kj = (b_kᵀ S ψ_j)² / (b_kᵀ S b_k),
-//! the squared S-projection of the normalized b_k on ψ_j. Because the canonical MOs of the
-//! full valence basis are S-orthonormal and complete (C Cᵀ = S⁻¹), Σ_j w_kj = 1 for any b_k;
-//! the sum over the occupied MOs is the share of b_k that the occupied space captures
-//! (1 for Pipek–Mezey orbitals, which are a rotation of the occupied MOs). Weights to the
+//! the squared S-projection of the normalized b_k on ψ_j (S = 1 in the orthonormal basis
+//! of the localized picture). Because the canonical MOs of the full valence basis are
+//! orthonormal and complete, Σ_j w_kj = 1 for any b_k; and when the localized set is
+//! itself an orthonormal basis of the valence space (the localized ladder is), also
+//! Σ_k w_kj = 1 for every ψ_j: the weights are then a partition both ways. The sum over the
+//! occupied MOs is the share of b_k that the occupied space captures. Weights to the
 //! members of a degenerate set are summed into one line; the sets come from energies within
 //! a tolerance or from ids given by the caller (e.g. the symmetry stage).
 //!
@@ -87,30 +89,45 @@ pub struct Links {
     pub entries: Vec<LinkEntry>,
 }
 
+/// The metric of the vectors given to [`weights`] and [`link`].
+#[derive(Clone, Copy, Debug, PartialEq)]
+pub enum Metric<'a> {
+    /// Vectors over the original AOs, with their overlap matrix S.
+    Overlap(&'a DMatrix<f64>),
+    /// Vectors over an orthonormal basis (S = 1), as the localized picture's.
+    Orthonormal,
+}
+
 /// w_kj = (b_kᵀ S ψ_j)² / (b_kᵀ S b_k) for columns b_k of `localized` and ψ_j of
 /// `canonical`; rows k, columns j.
 pub fn weights(
     localized: &DMatrix<f64>,
     canonical: &DMatrix<f64>,
-    overlap: &DMatrix<f64>,
+    metric: Metric<'_>,
 ) -> Result<DMatrix<f64>, LinkError> {
-    let n = overlap.nrows();
-    if overlap.ncols() != n || localized.nrows() != n || canonical.nrows() != n {
+    let n = canonical.nrows();
+    let overlap_shape = match metric {
+        Metric::Overlap(s) => (s.nrows(), s.ncols()),
+        Metric::Orthonormal => (n, n),
+    };
+    if overlap_shape != (n, n) || localized.nrows() != n {
         return Err(LinkError::DimensionMismatch {
             localized: localized.nrows(),
             canonical: canonical.nrows(),
-            overlap: (overlap.nrows(), overlap.ncols()),
+            overlap: overlap_shape,
         });
     }
-    if localized
-        .iter()
-        .chain(canonical.iter())
-        .chain(overlap.iter())
-        .any(|x| !x.is_finite())
-    {
+    let overlap_finite = match metric {
+        Metric::Overlap(s) => s.iter().all(|x| x.is_finite()),
+        Metric::Orthonormal => true,
+    };
+    if !overlap_finite || localized.iter().chain(canonical.iter()).any(|x| !x.is_finite()) {
         return Err(LinkError::NonFinite);
     }
-    let sb = overlap * localized;
+    let sb = match metric {
+        Metric::Overlap(overlap) => overlap * localized,
+        Metric::Orthonormal => localized.clone(),
+    };
     let projections = sb.transpose() * canonical;
     let mut w = projections;
     for k in 0..localized.ncols() {
@@ -186,7 +203,7 @@ pub fn level_sets(count: usize, sets: LevelSets<'_>) -> Result<Vec<Vec<usize>>, 
 pub fn link(
     localized: &DMatrix<f64>,
     canonical: &DMatrix<f64>,
-    overlap: &DMatrix<f64>,
+    metric: Metric<'_>,
     occupations: &[f64],
     sets: LevelSets<'_>,
     threshold: f64,
@@ -199,7 +216,7 @@ pub fn link(
             expected: count,
         });
     }
-    let weights = weights(localized, canonical, overlap)?;
+    let weights = weights(localized, canonical, metric)?;
     let sets = level_sets(count, sets)?;
     let n_loc = localized.ncols();
     let set_weights = DMatrix::from_fn(n_loc, sets.len(), |k, s| {
@@ -361,7 +378,7 @@ mod tests {
         let b = DMatrix::zeros(2, 1);
         let c = DMatrix::identity(2, 2);
         assert!(matches!(
-            weights(&b, &c, &s),
+            weights(&b, &c, Metric::Overlap(&s)),
             Err(LinkError::ZeroNorm { index: 0, .. })
         ));
     }

@@ -1,0 +1,303 @@
+//! Reading localized orbitals: how many centres each has, σ or π, bonding or antibonding,
+//! and which pairs of occupied orbitals form one three-centre four-electron bond.
+//!
+//! **Centres.** The fewest atoms, by decreasing Löwdin population, whose populations add
+//! to at least [`CENTRE_SHARE`]: one centre is a lone pair (or a singly occupied
+//! one-centre orbital), two a bond, three or more a multicentre orbital. Our threshold,
+//! stated in the README.
+//!
+//! **σ or π.** A two-centre orbital is π when the norm-weighted share of its two parts
+//! that is p perpendicular to the bond axis exceeds [`PI_PERPENDICULAR_SHARE`] (a node
+//! plane containing the axis); a bent bond falls between and takes the larger name.
+//!
+//! **Bonding or antibonding.** The interaction of the parts on the two centres,
+//! 2 Σ_{μ∈A, ν∈B} φ̃_μ H̃_μν φ̃_ν, is negative for a bonding and positive for an antibonding
+//! orbital (O2's singly occupied π*).
+//!
+//! **Three-centre four-electron bonds** (G. C. Pimentel, J. Chem. Phys. 19, 446 (1951)):
+//! two doubly occupied orbitals that each hold at least [`SHARED_CENTRE_POPULATION`] on a
+//! common atom, whose normalized parts there are nearly parallel (|cos| ≥
+//! [`PARALLEL_COSINE`]: they use the same local orbital) and whose other main atoms
+//! differ — the π systems of CO2 and ozone, the axial F–Cl–F of ClF3. Both thresholds are
+//! our choice (stated in the README). Each orbital joins at most one unit, best pairs first.
+
+use nalgebra::{DMatrix, DVectorView, Vector3};
+use serde::{Deserialize, Serialize};
+
+use super::orthonormal::{AtomLayout, populations};
+use crate::chem::ao::AngularKind;
+use crate::chem::molecule::Molecule;
+
+/// Atoms holding this share of an orbital are its centres (our choice, no source).
+pub const CENTRE_SHARE: f64 = 0.9;
+/// A two-centre orbital is π above this perpendicular-p share (our rule, no source).
+pub const PI_PERPENDICULAR_SHARE: f64 = 0.5;
+/// The shared atom of a 3c–4e pair holds at least this population of each orbital.
+pub const SHARED_CENTRE_POPULATION: f64 = 0.05;
+/// The two orbitals' parts on the shared atom are parallel to at least this |cos|.
+pub const PARALLEL_COSINE: f64 = 0.9;
+
+/// Which block of the canonical occupations an orbital was localized in.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum OrbitalSpace {
+    /// Doubly occupied MOs.
+    Doubly,
+    /// Partly occupied MOs (a radical's singly occupied MO, a partly filled degenerate
+    /// set).
+    Partly,
+    /// Empty valence MOs.
+    Virtual,
+}
+
+/// How many centres an orbital has.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum OrbitalClass {
+    OneCentre,
+    TwoCentre,
+    MultiCentre,
+}
+
+/// σ or π character.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
+#[serde(rename_all = "snake_case")]
+pub enum BondCharacter {
+    Sigma,
+    Pi,
+}
+
+/// One localized orbital, classified.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct LocalizedOrbital {
+    pub space: OrbitalSpace,
+    /// Σ_j n_j |⟨b|ψ_j⟩|² over the canonical MOs (2, 0, or a partial value).
+    pub occupancy: f64,
+    /// ⟨b|H̃|b⟩, eV.
+    pub energy_ev: f64,
+    /// Centres by decreasing population.
+    pub centres: Vec<usize>,
+    /// Their Löwdin populations.
+    pub centre_populations: Vec<f64>,
+    pub class: OrbitalClass,
+    /// σ or π (two-centre orbitals; members of a 3c–4e unit get the unit's).
+    pub character: Option<BondCharacter>,
+    /// A two-centre orbital whose parts repel.
+    pub antibonding: bool,
+    /// The 3c–4e unit it belongs to (index into the units).
+    pub unit: Option<usize>,
+}
+
+/// Two doubly occupied orbitals forming one three-centre four-electron bond.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct ThreeCentreUnit {
+    /// Indices of the two localized orbitals.
+    pub orbitals: [usize; 2],
+    /// Terminal, shared centre, terminal.
+    pub atoms: [usize; 3],
+    pub character: BondCharacter,
+}
+
+/// Classifies one orbital (a column over the orthonormal basis).
+pub fn classify_orbital(
+    orbital: DVectorView<'_, f64>,
+    space: OrbitalSpace,
+    occupancy: f64,
+    layout: &AtomLayout,
+    hamiltonian: &DMatrix<f64>,
+    molecule: &Molecule,
+) -> LocalizedOrbital {
+    let all = populations(orbital, layout);
+    let centres = centres_of(&all);
+    let class = match centres.len() {
+        0 | 1 => OrbitalClass::OneCentre,
+        2 => OrbitalClass::TwoCentre,
+        _ => OrbitalClass::MultiCentre,
+    };
+    let energy_ev = orbital.dot(&(hamiltonian * orbital));
+    let (character, antibonding) = if class == OrbitalClass::TwoCentre {
+        let (a, b) = (centres[0], centres[1]);
+        (
+            Some(character_of(orbital, layout, molecule, a, b)),
+            interaction(orbital, layout, hamiltonian, a, b) > 0.0,
+        )
+    } else {
+        (None, false)
+    };
+    LocalizedOrbital {
+        space,
+        occupancy,
+        energy_ev,
+        centre_populations: centres.iter().map(|&a| all[a]).collect(),
+        centres,
+        class,
+        character,
+        antibonding,
+        unit: None,
+    }
+}
+
+/// The fewest atoms, by decreasing population, reaching [`CENTRE_SHARE`] of the total.
+fn centres_of(populations: &[f64]) -> Vec<usize> {
+    let total: f64 = populations.iter().sum();
+    let mut order: Vec<usize> = (0..populations.len()).collect();
+    order.sort_by(|&a, &b| populations[b].total_cmp(&populations[a]).then(a.cmp(&b)));
+    let mut sum = 0.0;
+    let mut centres = Vec::new();
+    for atom in order {
+        centres.push(atom);
+        sum += populations[atom];
+        if sum >= CENTRE_SHARE * total {
+            break;
+        }
+    }
+    centres
+}
+
+/// The part of `orbital` on `atom` (its coefficients on the atom's functions).
+pub fn part_on(orbital: DVectorView<'_, f64>, layout: &AtomLayout, atom: usize) -> Vec<f64> {
+    layout.ranges[atom].clone().map(|mu| orbital[mu]).collect()
+}
+
+/// The p vector of a part (x, y, z components).
+pub fn p_vector(part: &[f64], kinds: &[AngularKind]) -> Vector3<f64> {
+    let mut p = Vector3::zeros();
+    for (&c, &kind) in part.iter().zip(kinds) {
+        match kind {
+            AngularKind::Px => p.x += c,
+            AngularKind::Py => p.y += c,
+            AngularKind::Pz => p.z += c,
+            _ => {}
+        }
+    }
+    p
+}
+
+fn character_of(
+    orbital: DVectorView<'_, f64>,
+    layout: &AtomLayout,
+    molecule: &Molecule,
+    a: usize,
+    b: usize,
+) -> BondCharacter {
+    let axis = molecule.atoms[b].position - molecule.atoms[a].position;
+    if axis.norm() < 1e-8 {
+        return BondCharacter::Sigma;
+    }
+    let axis = axis.normalize();
+    let (mut perpendicular, mut total) = (0.0, 0.0);
+    for atom in [a, b] {
+        let part = part_on(orbital, layout, atom);
+        let kinds = &layout.kinds[layout.ranges[atom].clone()];
+        let p = p_vector(&part, kinds);
+        perpendicular += (p - axis * p.dot(&axis)).norm_squared();
+        total += part.iter().map(|c| c * c).sum::<f64>();
+    }
+    if total > 0.0 && perpendicular / total > PI_PERPENDICULAR_SHARE {
+        BondCharacter::Pi
+    } else {
+        BondCharacter::Sigma
+    }
+}
+
+/// 2 Σ_{μ∈A, ν∈B} φ̃_μ H̃_μν φ̃_ν.
+fn interaction(
+    orbital: DVectorView<'_, f64>,
+    layout: &AtomLayout,
+    hamiltonian: &DMatrix<f64>,
+    a: usize,
+    b: usize,
+) -> f64 {
+    let mut total = 0.0;
+    for mu in layout.ranges[a].clone() {
+        for nu in layout.ranges[b].clone() {
+            total += orbital[mu] * hamiltonian[(mu, nu)] * orbital[nu];
+        }
+    }
+    2.0 * total
+}
+
+/// Finds the 3c–4e units among the doubly occupied orbitals (columns of `vectors`, in the
+/// order of `orbitals`), marks their members and returns them.
+pub fn three_centre_units(
+    orbitals: &mut [LocalizedOrbital],
+    vectors: &DMatrix<f64>,
+    layout: &AtomLayout,
+    molecule: &Molecule,
+) -> Vec<ThreeCentreUnit> {
+    let mut candidates: Vec<(f64, usize, usize, usize)> = Vec::new();
+    let doubly: Vec<usize> = (0..orbitals.len())
+        .filter(|&k| orbitals[k].space == OrbitalSpace::Doubly)
+        .collect();
+    let all: Vec<Vec<f64>> = doubly
+        .iter()
+        .map(|&k| populations(vectors.column(k), layout))
+        .collect();
+    for (x, &i) in doubly.iter().enumerate() {
+        for (y, &j) in doubly.iter().enumerate().skip(x + 1) {
+            for atom in 0..layout.atoms() {
+                if all[x][atom] < SHARED_CENTRE_POPULATION || all[y][atom] < SHARED_CENTRE_POPULATION
+                {
+                    continue;
+                }
+                let (pi, pj) = (
+                    part_on(vectors.column(i), layout, atom),
+                    part_on(vectors.column(j), layout, atom),
+                );
+                let dot: f64 = pi.iter().zip(&pj).map(|(a, b)| a * b).sum();
+                let cosine = dot.abs() / (all[x][atom] * all[y][atom]).sqrt();
+                let (oi, oj) = (main_other(&all[x], atom), main_other(&all[y], atom));
+                if cosine >= PARALLEL_COSINE && oi != oj {
+                    candidates.push((cosine, i, j, atom));
+                }
+            }
+        }
+    }
+    candidates.sort_by(|a, b| b.0.total_cmp(&a.0).then((a.1, a.2).cmp(&(b.1, b.2))));
+    let mut units = Vec::new();
+    for (_, i, j, atom) in candidates {
+        if orbitals[i].unit.is_some() || orbitals[j].unit.is_some() {
+            continue;
+        }
+        let index = |k: usize| doubly.iter().position(|&d| d == k).unwrap_or(0);
+        let first = main_other(&all[index(i)], atom);
+        let second = main_other(&all[index(j)], atom);
+        let character = unit_character(vectors, layout, molecule, [i, j], [first, atom, second]);
+        for k in [i, j] {
+            orbitals[k].unit = Some(units.len());
+            orbitals[k].character = Some(character);
+        }
+        units.push(ThreeCentreUnit {
+            orbitals: [i, j],
+            atoms: [first, atom, second],
+            character,
+        });
+    }
+    units
+}
+
+/// The atom other than `atom` with the largest population.
+fn main_other(populations: &[f64], atom: usize) -> usize {
+    (0..populations.len())
+        .filter(|&a| a != atom)
+        .max_by(|&a, &b| populations[a].total_cmp(&populations[b]).then(b.cmp(&a)))
+        .unwrap_or(atom)
+}
+
+/// π when both orbitals are π toward their terminal atom.
+fn unit_character(
+    vectors: &DMatrix<f64>,
+    layout: &AtomLayout,
+    molecule: &Molecule,
+    orbitals: [usize; 2],
+    atoms: [usize; 3],
+) -> BondCharacter {
+    let pi = |k: usize, terminal: usize| {
+        character_of(vectors.column(k), layout, molecule, terminal, atoms[1]) == BondCharacter::Pi
+    };
+    if pi(orbitals[0], atoms[0]) && pi(orbitals[1], atoms[2]) {
+        BondCharacter::Pi
+    } else {
+        BondCharacter::Sigma
+    }
+}

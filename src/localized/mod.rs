@@ -1,0 +1,278 @@
+//! The localized picture, read from the wavefunction (DESIGN §4.4–4.6).
+//!
+//! 1. [`orthonormal`]: Löwdin's orthonormal atomic basis (in extended Hückel's minimal
+//!    valence basis, the intrinsic atomic orbitals of Knizia 2013) and atomic populations.
+//! 2. [`localize`]: the doubly occupied, the partly occupied and the empty valence MOs are
+//!    localized separately (intrinsic bond orbitals, p = 4, by default; Pipek–Mezey with
+//!    Löwdin charges, p = 2, as an option), so no localized orbital mixes electrons of
+//!    different occupation; each carries its true occupancy Σ_j n_j |⟨b|ψ_j⟩|².
+//! 3. [`classify`] and [`lewis`]: lone pairs, two-centre bonds (σ/π, bonding/antibonding),
+//!    multicentre orbitals and 3c–4e bonds, then the Lewis structure (bond orders, Wiberg
+//!    indices, formal charges, the Lewis share).
+//! 4. [`hybrids`]: the hybrids of each atom read from those orbitals (the default model),
+//!    and the one reader of a hybrid's shape for every model.
+//! 5. [`ladder`]: the levels of the localized ladder from the hybrids; [`weights`]: their
+//!    weights in the canonical MOs; [`switch`]: the lone-pair mixing switch.
+//!
+//! [`analyze`] runs 1–4 for an extended Hückel result; the ladder is built by
+//! `Analysis::run` after the hybrid model of the settings has been applied.
+
+pub mod classify;
+pub mod hybrids;
+pub mod ladder;
+pub mod lewis;
+pub mod localize;
+pub mod orthonormal;
+pub mod switch;
+pub mod weights;
+
+use nalgebra::DMatrix;
+use serde::{Deserialize, Serialize};
+use thiserror::Error;
+
+pub use classify::{
+    BondCharacter, LocalizedOrbital, OrbitalClass, OrbitalSpace, ThreeCentreUnit,
+};
+pub use hybrids::{AtomHybrid, AtomHybrids, HybridKind, HybridModel, HybridShape, read_shape};
+pub use ladder::{Ladder, LadderLevel, LocalizedKind};
+pub use lewis::{LewisStructure, MulticentreKind};
+pub use localize::{LocalizationMethod, LocalizationOptions};
+pub use orthonormal::AtomLayout;
+
+use crate::chem::molecule::Molecule;
+use crate::eht::EhtResult;
+
+/// Occupations within this of 0 or 2 count as empty or full.
+const OCCUPATION_TOLERANCE: f64 = 1e-9;
+/// Below this Lewis share a note says one Lewis structure describes the molecule poorly
+/// (our choice, no source).
+pub const LOW_LEWIS_SHARE: f64 = 0.9;
+
+/// Settings of the localization.
+#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(default)]
+pub struct LocalizationSettings {
+    pub method: LocalizationMethod,
+    /// Cap on the Jacobi sweeps of each space.
+    pub max_sweeps: usize,
+}
+
+impl Default for LocalizationSettings {
+    fn default() -> Self {
+        LocalizationSettings {
+            method: LocalizationMethod::default(),
+            max_sweeps: localize::DEFAULT_MAX_SWEEPS,
+        }
+    }
+}
+
+/// The localized picture cannot be read.
+#[derive(Debug, Clone, PartialEq, Error)]
+pub enum LocalizedError {
+    #[error(
+        "the orbital basis covers {basis_atoms} atoms but the molecule has {atoms}; the localized picture needs the extended Hückel result of this molecule"
+    )]
+    BasisMismatch { atoms: usize, basis_atoms: usize },
+    #[error("the orbitals contain a non-finite number")]
+    NonFinite,
+}
+
+/// How the localization of one space went.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct SpaceReport {
+    pub space: OrbitalSpace,
+    pub orbitals: usize,
+    pub sweeps: usize,
+    pub converged: bool,
+    /// F_p of the localized orbitals.
+    pub function_value: f64,
+}
+
+/// Everything the localized picture reads from one wavefunction.
+#[derive(Clone, Debug, PartialEq, Serialize)]
+pub struct LocalizedPicture {
+    pub method: LocalizationMethod,
+    /// Doubly occupied, then partly occupied, then empty; each block by energy.
+    pub orbitals: Vec<LocalizedOrbital>,
+    /// The localized orbitals over the orthonormal basis (columns, same order).
+    #[serde(skip)]
+    pub vectors: DMatrix<f64>,
+    pub units: Vec<ThreeCentreUnit>,
+    pub lewis: LewisStructure,
+    /// The wavefunction hybrids of every atom.
+    pub hybrids: Vec<AtomHybrids>,
+    pub spaces: Vec<SpaceReport>,
+    /// Remarks for the user (multicentre bonding, open shells, over-complete atoms…).
+    pub notes: Vec<String>,
+    #[serde(skip)]
+    pub layout: AtomLayout,
+}
+
+/// Localizes, classifies and reads the Lewis structure and hybrids of `eht`.
+pub fn analyze(
+    molecule: &Molecule,
+    eht: &EhtResult,
+    settings: &LocalizationSettings,
+) -> Result<LocalizedPicture, LocalizedError> {
+    let layout = AtomLayout::of(eht);
+    if layout.atoms() != molecule.atoms.len() {
+        return Err(LocalizedError::BasisMismatch {
+            atoms: molecule.atoms.len(),
+            basis_atoms: layout.atoms(),
+        });
+    }
+    let form = &eht.orthonormal;
+    if form.coefficients.iter().chain(form.hamiltonian.iter()).any(|x| !x.is_finite()) {
+        return Err(LocalizedError::NonFinite);
+    }
+    let options = LocalizationOptions {
+        method: settings.method,
+        max_sweeps: settings.max_sweeps,
+    };
+    let mut orbitals = Vec::new();
+    let mut columns = Vec::new();
+    let mut spaces = Vec::new();
+    for space in [OrbitalSpace::Doubly, OrbitalSpace::Partly, OrbitalSpace::Virtual] {
+        let members = space_members(&eht.occupations, space);
+        if members.is_empty() {
+            continue;
+        }
+        let result = localize::localize(&form.coefficients.select_columns(&members), &layout, &options);
+        spaces.push(SpaceReport {
+            space,
+            orbitals: members.len(),
+            sweeps: result.sweeps,
+            converged: result.converged,
+            function_value: result.function_value,
+        });
+        let occupancies = true_occupancies(&result.orbitals, &form.coefficients, &eht.occupations);
+        let mut block: Vec<(LocalizedOrbital, nalgebra::DVector<f64>)> = result
+            .orbitals
+            .column_iter()
+            .zip(occupancies)
+            .map(|(column, occupancy)| {
+                let vector = signed(column.into_owned());
+                let orbital = classify::classify_orbital(
+                    vector.as_view(),
+                    space,
+                    occupancy,
+                    &layout,
+                    &form.hamiltonian,
+                    molecule,
+                );
+                (orbital, vector)
+            })
+            .collect();
+        block.sort_by(|a, b| a.0.energy_ev.total_cmp(&b.0.energy_ev));
+        for (orbital, vector) in block {
+            orbitals.push(orbital);
+            columns.push(vector);
+        }
+    }
+    let vectors = if columns.is_empty() {
+        DMatrix::zeros(layout.functions(), 0)
+    } else {
+        DMatrix::from_columns(&columns)
+    };
+    let units = classify::three_centre_units(&mut orbitals, &vectors, &layout, molecule);
+    let wiberg = orthonormal::wiberg_indices(&form.coefficients, &eht.occupations, &layout);
+    let valence: Vec<f64> = molecule
+        .atoms
+        .iter()
+        .map(|a| f64::from(a.element.valence_electrons()))
+        .collect();
+    let lewis = lewis::read(&orbitals, &units, &wiberg, &valence);
+    let (hybrids, mut notes) = hybrids::read_hybrids(&orbitals, &vectors, &units, &layout, molecule);
+    notes.splice(0..0, picture_notes(&orbitals, &units, &lewis, &spaces, eht, molecule));
+    Ok(LocalizedPicture {
+        method: settings.method,
+        orbitals,
+        vectors,
+        units,
+        lewis,
+        hybrids,
+        spaces,
+        notes,
+        layout,
+    })
+}
+
+/// Indices of the canonical MOs of one space.
+fn space_members(occupations: &[f64], space: OrbitalSpace) -> Vec<usize> {
+    (0..occupations.len())
+        .filter(|&k| {
+            let n = occupations[k];
+            match space {
+                OrbitalSpace::Doubly => n >= 2.0 - OCCUPATION_TOLERANCE,
+                OrbitalSpace::Virtual => n <= OCCUPATION_TOLERANCE,
+                OrbitalSpace::Partly => n > OCCUPATION_TOLERANCE && n < 2.0 - OCCUPATION_TOLERANCE,
+            }
+        })
+        .collect()
+}
+
+/// Σ_j n_j ⟨b|ψ_j⟩² for each column b (all over the orthonormal basis).
+pub fn true_occupancies(
+    vectors: &DMatrix<f64>,
+    canonical: &DMatrix<f64>,
+    occupations: &[f64],
+) -> Vec<f64> {
+    let projections = vectors.transpose() * canonical;
+    projections
+        .row_iter()
+        .map(|row| row.iter().zip(occupations).map(|(p, n)| n * p * p).sum())
+        .collect()
+}
+
+/// The vector with its largest component positive.
+fn signed(v: nalgebra::DVector<f64>) -> nalgebra::DVector<f64> {
+    if v.is_empty() || v[v.iamax()] >= 0.0 { v } else { -v }
+}
+
+/// Notes on what the Lewis picture cannot say plainly.
+fn picture_notes(
+    orbitals: &[LocalizedOrbital],
+    units: &[ThreeCentreUnit],
+    lewis: &LewisStructure,
+    spaces: &[SpaceReport],
+    eht: &EhtResult,
+    molecule: &Molecule,
+) -> Vec<String> {
+    let symbol = |a: usize| molecule.atoms[a].element.symbol();
+    let written = |atoms: &[usize]| atoms.iter().map(|&a| format!("{}{a}", symbol(a))).collect::<Vec<_>>().join("–");
+    let mut notes = Vec::new();
+    for space in spaces.iter().filter(|s| !s.converged) {
+        notes.push(format!(
+            "the localization of the {:?} orbitals stopped after {} sweeps without converging; the orbitals shown are the last ones",
+            space.space, space.sweeps
+        ).to_lowercase());
+    }
+    let unpaired = lewis.unpaired_electrons();
+    if eht.open_shell || unpaired > 1e-9 {
+        let partly = orbitals.iter().filter(|o| o.space == OrbitalSpace::Partly).count();
+        notes.push(format!(
+            "open shell: {unpaired:.2} electrons sit in {partly} partly occupied orbitals (shown with their own occupancies); a closed-shell Lewis structure would contradict the canonical MOs"
+        ));
+    }
+    for unit in units {
+        notes.push(format!(
+            "three-centre four-electron {} bond {} (bond order ½ per link): one Lewis structure cannot show it",
+            if unit.character == BondCharacter::Pi { "π" } else { "σ" },
+            written(&unit.atoms)
+        ));
+    }
+    for bond in lewis.multicentre.iter().filter(|m| m.kind == MulticentreKind::Delocalized) {
+        notes.push(format!(
+            "multicentre bond over {} ({:.2} electrons): the two-centre picture does not fit here, the ladder shows the multicentre orbitals",
+            written(&bond.atoms),
+            bond.electrons
+        ));
+    }
+    if lewis.lewis_share < LOW_LEWIS_SHARE {
+        notes.push(format!(
+            "Lewis share {:.0} %: one Lewis structure describes this molecule only in part",
+            100.0 * lewis.lewis_share
+        ));
+    }
+    notes
+}
