@@ -215,7 +215,10 @@ impl Analysis {
         molecule.validate()?;
         let electrons = usize::try_from(molecule.electron_count()).unwrap_or(0);
         let mut log = stages::Log::default();
-        let symmetry = log.keep(Stage::Symmetry, symmetry::detect(molecule, &settings.symmetry));
+        let symmetry = log.keep(
+            Stage::Symmetry,
+            symmetry::detect(molecule, &settings.symmetry),
+        );
         let symmetry_summary = symmetry
             .as_ref()
             .map(|found| symmetry::summarize(found, molecule));
@@ -233,15 +236,28 @@ impl Analysis {
             log.notes(Stage::Localization, &found.notes);
         }
         let hybrids = match (&eht, &picture) {
-            (Some(solution), Some(found)) => {
-                Some(stages::model_hybrids(molecule, solution, found, &settings.hybrid, &mut log))
-            }
+            (Some(solution), Some(found)) => Some(stages::model_hybrids(
+                molecule,
+                solution,
+                found,
+                &settings.hybrid,
+                &mut log,
+            )),
             _ => None,
         };
-        let hybrid_entries = stages::hybrid_entries(molecule, picture.as_ref(), hybrids.as_ref(), settings.hybrid.model);
+        let hybrid_entries = stages::hybrid_entries(
+            molecule,
+            picture.as_ref(),
+            hybrids.as_ref(),
+            settings.hybrid.model,
+        );
         let mut level_shifts = Vec::new();
         if let Some(solution) = eht.as_mut() {
-            match stages::apply_lone_pair_switch(solution, &hybrid_entries, settings.lone_pair_mixing) {
+            match stages::apply_lone_pair_switch(
+                solution,
+                &hybrid_entries,
+                settings.lone_pair_mixing,
+            ) {
                 Ok(shifts) => level_shifts = shifts,
                 Err(message) => log.fail(Stage::Orbitals, message),
             }
@@ -253,7 +269,13 @@ impl Analysis {
         let mut localized = Vec::new();
         let mut links = Vec::new();
         if let (Some(solution), Some(found)) = (&eht, &picture) {
-            let (ladder, vectors) = stages::ladder(molecule, solution, found, hybrids.as_ref(), settings.hybrid.model);
+            let (ladder, vectors) = stages::ladder(
+                molecule,
+                solution,
+                found,
+                hybrids.as_ref(),
+                settings.hybrid.model,
+            );
             localized = ladder;
             match stages::links(solution, &orbitals, &vectors, &mut localized) {
                 Ok(found) => links = found,

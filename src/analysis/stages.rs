@@ -4,7 +4,9 @@
 
 use nalgebra::{DMatrix, DVector};
 
-use super::{HybridEntry, LinkSummary, LocalizedSummary, OrbitalSummary, Stage, StageError, StageNote};
+use super::{
+    HybridEntry, LinkSummary, LocalizedSummary, OrbitalSummary, Stage, StageError, StageNote,
+};
 use crate::chem::ao::AngularKind;
 use crate::chem::molecule::Molecule;
 use crate::eht::EhtResult;
@@ -28,7 +30,11 @@ pub(super) struct Log {
 
 impl Log {
     /// The value, or None with the error recorded.
-    pub fn keep<T, E: std::fmt::Display>(&mut self, stage: Stage, result: Result<T, E>) -> Option<T> {
+    pub fn keep<T, E: std::fmt::Display>(
+        &mut self,
+        stage: Stage,
+        result: Result<T, E>,
+    ) -> Option<T> {
         match result {
             Ok(value) => Some(value),
             Err(error) => {
@@ -99,8 +105,7 @@ pub(super) fn hybrid_entries(
 ) -> Vec<HybridEntry> {
     let mut entries = Vec::new();
     let described = |atom: usize| {
-        model != HybridModel::Localized
-            && hybrids.is_some_and(|found| found.centre(atom).is_some())
+        model != HybridModel::Localized && hybrids.is_some_and(|found| found.centre(atom).is_some())
     };
     for atom in 0..molecule.atoms.len() {
         if described(atom) {
@@ -126,7 +131,8 @@ pub(super) fn hybrid_entries(
             continue;
         };
         let layout = picture.map(|p| &p.layout);
-        let has_p = layout.is_some_and(|l| l.kinds[l.ranges[atom].clone()].iter().any(|k| k.l() == 1));
+        let has_p =
+            layout.is_some_and(|l| l.kinds[l.ranges[atom].clone()].iter().any(|k| k.l() == 1));
         if !has_p {
             continue;
         }
@@ -149,10 +155,21 @@ pub(super) fn hybrid_entries(
 }
 
 /// Each lone pair's atomic orbital: the centre's p orbital along the lone-pair hybrid's
-/// direction, as a vector over the whole basis.
+/// direction, as a vector over the whole basis. A direction (nearly) in the span of the
+/// same centre's earlier ones is left out: a centre has only three p orbitals to hold
+/// (F⁻ in KF has four lone pairs).
 fn lone_pair_orbitals(eht: &EhtResult, entries: &[HybridEntry]) -> Vec<DVector<f64>> {
     let mut vectors = Vec::new();
+    let mut held: Vec<(usize, nalgebra::Vector3<f64>)> = Vec::new();
     for entry in entries.iter().filter(|e| e.kind == HybridKind::LonePair) {
+        let mut direction = nalgebra::Vector3::from(entry.direction);
+        for (_, earlier) in held.iter().filter(|(atom, _)| *atom == entry.center) {
+            direction -= earlier * earlier.dot(&direction);
+        }
+        if direction.norm() < 0.3 {
+            continue;
+        }
+        held.push((entry.center, direction.normalize()));
         let Some(range) = eht.basis.atom_ranges.get(entry.center) else {
             continue;
         };
@@ -299,7 +316,9 @@ pub(super) fn links(
     )
     .map_err(|e| e.to_string())?;
     let occupancies = true_occupancies(vectors, canonical, &eht.occupations);
-    for ((orbital, captured), occupancy) in localized.iter_mut().zip(&found.captured).zip(occupancies) {
+    for ((orbital, captured), occupancy) in
+        localized.iter_mut().zip(&found.captured).zip(occupancies)
+    {
         orbital.captured = *captured;
         orbital.occupancy = occupancy;
     }

@@ -61,12 +61,30 @@ enum Command {
 /// The hybrid models of DESIGN §4.4.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
 enum ModelArg {
-    /// Coulson's relations from the bond angles.
-    Geometric,
-    /// Maximum overlap with the partners' orbitals.
-    MaxOverlap,
-    /// Read from Pipek–Mezey localized MOs.
+    /// Read from the localized orbitals of the wavefunction (the default).
     Localized,
+    /// Coulson's relations from the bond angles, on the wavefunction's Lewis structure.
+    Geometric,
+    /// Maximum overlap with the partners' orbitals, on the same Lewis structure.
+    MaxOverlap,
+}
+
+/// How the localized orbitals are found.
+#[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
+enum LocalizationArg {
+    /// Intrinsic bond orbitals: maximize Σ q⁴ of the Löwdin populations (the default).
+    Ibo,
+    /// Pipek–Mezey with Löwdin populations: maximize Σ q².
+    PipekMezey,
+}
+
+impl From<LocalizationArg> for diptych::localized::LocalizationMethod {
+    fn from(value: LocalizationArg) -> Self {
+        match value {
+            LocalizationArg::Ibo => diptych::localized::LocalizationMethod::IntrinsicBond,
+            LocalizationArg::PipekMezey => diptych::localized::LocalizationMethod::PipekMezey,
+        }
+    }
 }
 
 impl From<ModelArg> for diptych::hybrid::HybridModel {
@@ -92,6 +110,9 @@ pub(super) struct MethodArgs {
     /// Hybrid model for the localized picture.
     #[arg(long, value_enum)]
     model: Option<ModelArg>,
+    /// Localization method of the localized picture.
+    #[arg(long, value_enum)]
+    localization: Option<LocalizationArg>,
 }
 
 impl MethodArgs {
@@ -101,6 +122,9 @@ impl MethodArgs {
         }
         if let Some(model) = self.model {
             settings.hybrid.model = model.into();
+        }
+        if let Some(method) = self.localization {
+            settings.localization.method = method.into();
         }
     }
 }

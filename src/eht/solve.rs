@@ -176,9 +176,8 @@ pub fn solve_orthonormal(
     let energies: Vec<f64> = order.iter().map(|&k| h_eigen.eigenvalues[k]).collect();
     let mut sorted = DMatrix::from_fn(n, n, |i, j| h_eigen.eigenvectors[(i, order[j])]);
     let mut coefficients = &x * &sorted;
-    for (mut column, mut orthonormal) in coefficients
-        .column_iter_mut()
-        .zip(sorted.column_iter_mut())
+    for (mut column, mut orthonormal) in
+        coefficients.column_iter_mut().zip(sorted.column_iter_mut())
     {
         // Sign convention: the largest coefficient (first on ties) is positive.
         let mut best = 0;

@@ -79,7 +79,10 @@ fn spec_of(
     if hybrids.iter().any(|h| h.kind == HybridKind::Multicentre) {
         return Err("takes part in a multicentre bond");
     }
-    let single = hybrids.iter().filter(|h| h.kind == HybridKind::SingleElectron).count();
+    let single = hybrids
+        .iter()
+        .filter(|h| h.kind == HybridKind::SingleElectron)
+        .count();
     if single > 1 {
         return Err("has more than one singly occupied orbital");
     }
@@ -95,14 +98,20 @@ fn spec_of(
             // A second bond hybrid toward the same partner (a bent double bond) counts
             // as that bond's π orbital.
             (HybridKind::Bond, Some(partner)) | (HybridKind::Pi, Some(partner)) => {
-                pi.push((partner, perpendicular(direction, position(partner) - position(atom))));
+                pi.push((
+                    partner,
+                    perpendicular(direction, position(partner) - position(atom)),
+                ));
             }
             (HybridKind::Pi, None) => {
                 let partner = hybrid
                     .unit
                     .map(|u| picture.units[u].atoms[0])
                     .ok_or("has a π orbital without a partner")?;
-                pi.push((partner, perpendicular(direction, position(partner) - position(atom))));
+                pi.push((
+                    partner,
+                    perpendicular(direction, position(partner) - position(atom)),
+                ));
             }
             _ => {}
         }

@@ -186,7 +186,12 @@ pub fn describe_hybrid(
 ) -> Hybrid {
     let norm = local.norm();
     let v = if norm > 0.0 { local / norm } else { *local };
-    let kinds = [AngularKind::S, AngularKind::Px, AngularKind::Py, AngularKind::Pz];
+    let kinds = [
+        AngularKind::S,
+        AngularKind::Px,
+        AngularKind::Py,
+        AngularKind::Pz,
+    ];
     let shape = crate::localized::read_shape(v.as_slice(), &kinds);
     let direction = Vector3::from(shape.direction);
     let bending = match (kind, axis) {

@@ -12,8 +12,17 @@ use super::HybridAnalysis;
 
 /// Replaces the hybrid vectors of every centre `model` describes; returns how many
 /// centres were replaced.
-pub fn substitute(hybrids: &mut [AtomHybrids], model: &HybridAnalysis, layout: &AtomLayout) -> usize {
-    let sp = [AngularKind::S, AngularKind::Px, AngularKind::Py, AngularKind::Pz];
+pub fn substitute(
+    hybrids: &mut [AtomHybrids],
+    model: &HybridAnalysis,
+    layout: &AtomLayout,
+) -> usize {
+    let sp = [
+        AngularKind::S,
+        AngularKind::Px,
+        AngularKind::Py,
+        AngularKind::Pz,
+    ];
     let mut replaced = 0;
     for centre in &model.centres {
         let Some(target) = hybrids.iter_mut().find(|h| h.atom == centre.atom) else {
@@ -50,7 +59,8 @@ fn assignment(target: &AtomHybrids, model: &[[f64; 4]]) -> Vec<(usize, [f64; 4])
         }
     }
     scores.sort_by(|a, b| b.0.total_cmp(&a.0).then((a.1, a.2).cmp(&(b.1, b.2))));
-    let (mut slot_used, mut model_used) = (vec![false; target.hybrids.len()], vec![false; model.len()]);
+    let (mut slot_used, mut model_used) =
+        (vec![false; target.hybrids.len()], vec![false; model.len()]);
     let mut pairs = Vec::new();
     for (_, slot, k) in scores {
         if !slot_used[slot] && !model_used[k] {

@@ -236,7 +236,8 @@ pub fn three_centre_units(
     for (x, &i) in doubly.iter().enumerate() {
         for (y, &j) in doubly.iter().enumerate().skip(x + 1) {
             for atom in 0..layout.atoms() {
-                if all[x][atom] < SHARED_CENTRE_POPULATION || all[y][atom] < SHARED_CENTRE_POPULATION
+                if all[x][atom] < SHARED_CENTRE_POPULATION
+                    || all[y][atom] < SHARED_CENTRE_POPULATION
                 {
                     continue;
                 }

@@ -26,8 +26,8 @@ use nalgebra::{DMatrix, DVector, SymmetricEigen, Vector3};
 use serde::{Deserialize, Serialize};
 
 use super::classify::{
-    BondCharacter, LocalizedOrbital, OrbitalClass, OrbitalSpace, PARALLEL_COSINE,
-    ThreeCentreUnit, p_vector, part_on,
+    BondCharacter, LocalizedOrbital, OrbitalClass, OrbitalSpace, PARALLEL_COSINE, ThreeCentreUnit,
+    p_vector, part_on,
 };
 use super::orthonormal::AtomLayout;
 use crate::chem::ao::AngularKind;
@@ -131,7 +131,11 @@ pub fn read_shape(local: &[f64], kinds: &[AngularKind]) -> HybridShape {
         };
     }
     let direction = if p > 1e-12 * total {
-        let sign = if s > 1e-12 * total && s_sign < 0.0 { -1.0 } else { 1.0 };
+        let sign = if s > 1e-12 * total && s_sign < 0.0 {
+            -1.0
+        } else {
+            1.0
+        };
         p_vec * (sign / p.sqrt())
     } else {
         Vector3::zeros()
@@ -147,7 +151,12 @@ pub fn read_shape(local: &[f64], kinds: &[AngularKind]) -> HybridShape {
 
 /// The angle (degrees) between a hybrid's direction and the axis from `atom` to
 /// `partner`, when both exist.
-pub fn bending(shape: &HybridShape, molecule: &Molecule, atom: usize, partner: usize) -> Option<f64> {
+pub fn bending(
+    shape: &HybridShape,
+    molecule: &Molecule,
+    atom: usize,
+    partner: usize,
+) -> Option<f64> {
     let direction = Vector3::from(shape.direction);
     let axis = molecule.atoms.get(partner)?.position - molecule.atoms.get(atom)?.position;
     (direction.norm() > 0.5 && axis.norm() > 1e-8)
@@ -207,6 +216,46 @@ pub fn read_hybrids(
     (all, notes)
 }
 
+/// Bent's rule (H. A. Bent, Chem. Rev. 61, 275 (1961)) says a centre's lone pairs are its
+/// s-richest hybrids. Where the wavefunction's reading disagrees by more than one
+/// percentage point on a centre with two or more σ bonds, a note says so with the numbers: extended Hückel puts the 2s of N and
+/// O mostly into the bonds (ammonia's HOMO is 98 % N 2p), so the reading follows the
+/// wavefunction, not the rule.
+pub fn bent_notes(hybrids: &[AtomHybrids], molecule: &Molecule) -> Vec<String> {
+    let mut notes = Vec::new();
+    for atom_hybrids in hybrids {
+        let s_of = |kind: HybridKind| {
+            atom_hybrids
+                .hybrids
+                .iter()
+                .filter(|h| h.kind == kind)
+                .map(|h| 100.0 * h.shape.s_share)
+                .fold(None, |best: Option<f64>, s| {
+                    Some(best.map_or(s, |b| b.max(s)))
+                })
+        };
+        let bonds = atom_hybrids
+            .hybrids
+            .iter()
+            .filter(|h| h.kind == HybridKind::Bond)
+            .count();
+        if let (Some(lone), Some(bond), true) = (
+            s_of(HybridKind::LonePair),
+            s_of(HybridKind::Bond),
+            bonds >= 2,
+        ) {
+            if lone + 1.0 < bond {
+                notes.push(format!(
+                    "atom {} ({}): its s-richest lone pair has {lone:.1} % s, less than its bonds ({bond:.1} % s), against Bent's rule; this follows the extended Hückel wavefunction, which puts little s character into this lone pair (the geometric model gives the textbook reading)",
+                    atom_hybrids.atom,
+                    molecule.atoms[atom_hybrids.atom].element.symbol()
+                ));
+            }
+        }
+    }
+    notes
+}
+
 /// A group of nearly parallel parts on one atom.
 struct Cluster {
     /// (orbital, normalized part, population), largest population first.
@@ -257,9 +306,19 @@ fn atom_hybrids(
             hybrid
         })
         .collect();
-    let taken: Vec<DVector<f64>> = hybrids.iter().map(|h| DVector::from_vec(h.vector.clone())).collect();
+    let taken: Vec<DVector<f64>> = hybrids
+        .iter()
+        .map(|h| DVector::from_vec(h.vector.clone()))
+        .collect();
     for vector in vacant_completion(atom, &taken, orbitals, vectors, layout) {
-        hybrids.push(make_hybrid(HybridKind::Vacant, None, vector, kinds, molecule, atom));
+        hybrids.push(make_hybrid(
+            HybridKind::Vacant,
+            None,
+            vector,
+            kinds,
+            molecule,
+            atom,
+        ));
     }
     AtomHybrids {
         atom,
@@ -327,17 +386,33 @@ fn lowdin_frame(representatives: &[DVector<f64>], dimension: usize) -> (Vec<DVec
 }
 
 /// The kind and partner of a hybrid whose leading part comes from `orbital`.
-fn kind_of(orbital: &LocalizedOrbital, atom: usize, units: &[ThreeCentreUnit]) -> (HybridKind, Option<usize>) {
+fn kind_of(
+    orbital: &LocalizedOrbital,
+    atom: usize,
+    units: &[ThreeCentreUnit],
+) -> (HybridKind, Option<usize>) {
     if let Some(unit) = orbital.unit.map(|u| &units[u]) {
         let pi = unit.character == BondCharacter::Pi;
         return if unit.atoms[1] == atom {
-            (if pi { HybridKind::Pi } else { HybridKind::Multicentre }, None)
+            (
+                if pi {
+                    HybridKind::Pi
+                } else {
+                    HybridKind::Multicentre
+                },
+                None,
+            )
         } else {
-            (if pi { HybridKind::Pi } else { HybridKind::Bond }, Some(unit.atoms[1]))
+            (
+                if pi { HybridKind::Pi } else { HybridKind::Bond },
+                Some(unit.atoms[1]),
+            )
         };
     }
     match orbital.class {
-        OrbitalClass::OneCentre if orbital.space == OrbitalSpace::Doubly => (HybridKind::LonePair, None),
+        OrbitalClass::OneCentre if orbital.space == OrbitalSpace::Doubly => {
+            (HybridKind::LonePair, None)
+        }
         OrbitalClass::OneCentre => (HybridKind::SingleElectron, None),
         OrbitalClass::TwoCentre => {
             let partner = orbital.centres.iter().copied().find(|&a| a != atom);
@@ -400,7 +475,9 @@ fn vacant_completion(
         .enumerate()
         .filter(|(_, o)| o.space == OrbitalSpace::Virtual && o.centres.first() == Some(&atom))
         .map(|(k, _)| DVector::from_vec(part_on(vectors.column(k), layout, atom)))
-        .chain((0..dimension).map(|i| DVector::from_fn(dimension, |r, _| f64::from(u8::from(r == i)))));
+        .chain(
+            (0..dimension).map(|i| DVector::from_fn(dimension, |r, _| f64::from(u8::from(r == i)))),
+        );
     for candidate in candidates {
         if basis.len() >= dimension {
             break;
@@ -436,7 +513,12 @@ mod tests {
     #[test]
     fn reader_gives_sp3_for_a_tetrahedral_hybrid() {
         // (s + √3 p_z)/2: λ = 3, 25 % s (Coulson, Valence, 1952).
-        let kinds = [AngularKind::S, AngularKind::Px, AngularKind::Py, AngularKind::Pz];
+        let kinds = [
+            AngularKind::S,
+            AngularKind::Px,
+            AngularKind::Py,
+            AngularKind::Pz,
+        ];
         let shape = read_shape(&[0.5, 0.0, 0.0, 0.75f64.sqrt()], &kinds);
         assert!((shape.lambda.unwrap() - 3.0).abs() < 1e-12);
         assert!((shape.s_share - 0.25).abs() < 1e-12);

@@ -135,7 +135,12 @@ pub fn build(
     let vectors = if columns.is_empty() {
         DMatrix::zeros(layout.functions(), 0)
     } else {
-        DMatrix::from_columns(&order.iter().map(|&k| columns[k].clone()).collect::<Vec<_>>())
+        DMatrix::from_columns(
+            &order
+                .iter()
+                .map(|&k| columns[k].clone())
+                .collect::<Vec<_>>(),
+        )
     };
     let levels = order.iter().map(|&k| levels[k].clone()).collect();
     Ladder { levels, vectors }
@@ -206,7 +211,11 @@ fn unit_pieces(
 }
 
 /// Eigenvalues (ascending) and eigenvectors of H̃ within the unit's pieces.
-fn solve_unit(pieces: &[&Piece], hamiltonian: &DMatrix<f64>, layout: &AtomLayout) -> (Vec<f64>, Vec<DVector<f64>>) {
+fn solve_unit(
+    pieces: &[&Piece],
+    hamiltonian: &DMatrix<f64>,
+    layout: &AtomLayout,
+) -> (Vec<f64>, Vec<DVector<f64>>) {
     let n = pieces.len();
     let m = DMatrix::from_fn(n, n, |a, b| {
         let (pa, pb) = (pieces[a], pieces[b]);
@@ -234,11 +243,7 @@ fn solve_unit(pieces: &[&Piece], hamiltonian: &DMatrix<f64>, layout: &AtomLayout
     (energies, vectors)
 }
 
-fn dense(
-    pieces: &[&Piece],
-    coefficients: &DVector<f64>,
-    layout: &AtomLayout,
-) -> DVector<f64> {
+fn dense(pieces: &[&Piece], coefficients: &DVector<f64>, layout: &AtomLayout) -> DVector<f64> {
     let mut out = DVector::zeros(layout.functions());
     for (piece, &c) in pieces.iter().zip(coefficients.iter()) {
         let start = layout.ranges[piece.atom].start;
@@ -277,7 +282,10 @@ impl Naming {
         let mut atoms: Vec<usize> = pieces.iter().map(|p| p.atom).collect();
         atoms.sort_unstable();
         atoms.dedup();
-        let unit = lo_members.iter().find_map(|&k| orbitals[k].unit).map(|u| &units[u]);
+        let unit = lo_members
+            .iter()
+            .find_map(|&k| orbitals[k].unit)
+            .map(|u| &units[u]);
         let pi = !lo_members.is_empty()
             && lo_members
                 .iter()
@@ -285,7 +293,11 @@ impl Naming {
         let shape = if pieces.len() == 1 {
             UnitShape::OneCentre
         } else if pieces.len() == 2 && atoms.len() == 2 {
-            UnitShape::TwoCentre(if pi { BondCharacter::Pi } else { BondCharacter::Sigma })
+            UnitShape::TwoCentre(if pi {
+                BondCharacter::Pi
+            } else {
+                BondCharacter::Sigma
+            })
         } else {
             let three_centre = unit.is_some() && atoms.len() == 3 && pieces.len() == 3;
             let prefix = match unit {
@@ -309,7 +321,13 @@ impl Naming {
     }
 
     /// Kind and label of level `rank` of `count`, holding `lewis` of the unit's `electrons`.
-    fn level(&self, rank: usize, count: usize, lewis: f64, electrons: f64) -> (LocalizedKind, String) {
+    fn level(
+        &self,
+        rank: usize,
+        count: usize,
+        lewis: f64,
+        electrons: f64,
+    ) -> (LocalizedKind, String) {
         let w = &self.written;
         match &self.shape {
             UnitShape::OneCentre => {
@@ -333,11 +351,17 @@ impl Naming {
             UnitShape::Multicentre(prefix, three_centre) => {
                 let nonbonding = *three_centre && count == 3 && rank == 1 && electrons > 3.0;
                 if nonbonding {
-                    (LocalizedKind::MulticentreNonbonding, format!("{prefix}nb({w})"))
+                    (
+                        LocalizedKind::MulticentreNonbonding,
+                        format!("{prefix}nb({w})"),
+                    )
                 } else if lewis > 1e-9 {
                     (LocalizedKind::Multicentre, format!("{prefix}({w})"))
                 } else {
-                    (LocalizedKind::MulticentreAntibond, format!("{prefix}*({w})"))
+                    (
+                        LocalizedKind::MulticentreAntibond,
+                        format!("{prefix}*({w})"),
+                    )
                 }
             }
         }
@@ -355,7 +379,12 @@ fn written_atoms(
 ) -> String {
     let symbol = |a: usize| molecule.atoms[a].element.symbol();
     let is_h = |a: usize| molecule.atoms[a].element.atomic_number() == 1;
-    let join = |list: &[usize]| list.iter().map(|&a| symbol(a)).collect::<Vec<_>>().join("–");
+    let join = |list: &[usize]| {
+        list.iter()
+            .map(|&a| symbol(a))
+            .collect::<Vec<_>>()
+            .join("–")
+    };
     match atoms.len() {
         0 => "?".into(),
         1 => symbol(atoms[0]).into(),
@@ -364,22 +393,14 @@ fn written_atoms(
             pair.sort_by_key(|&a| (is_h(a), a));
             join(&pair)
         }
-        3 => {
-            let middle = unit.map(|u| u.atoms[1]).filter(|m| atoms.contains(m)).unwrap_or_else(|| {
-                let distance = |a: usize, b: usize| (molecule.atoms[a].position - molecule.atoms[b].position).norm();
-                *atoms
-                    .iter()
-                    .min_by(|&&a, &&b| {
-                        let da: f64 = atoms.iter().map(|&o| distance(a, o)).sum();
-                        let db: f64 = atoms.iter().map(|&o| distance(b, o)).sum();
-                        da.total_cmp(&db)
-                    })
-                    .unwrap_or(&atoms[1])
-            });
-            let mut ends: Vec<usize> = atoms.iter().copied().filter(|&a| a != middle).collect();
-            ends.sort_by_key(|&a| (is_h(a), a));
-            join(&[ends[0], middle, ends[1]])
-        }
+        3 => match unit.map(|u| u.atoms[1]).filter(|m| atoms.contains(m)) {
+            Some(middle) => {
+                let mut ends: Vec<usize> = atoms.iter().copied().filter(|&a| a != middle).collect();
+                ends.sort_by_key(|&a| (is_h(a), a));
+                join(&[ends[0], middle, ends[1]])
+            }
+            None => join(&chain_order(atoms, molecule)),
+        },
         _ => {
             let mut counts: Vec<(&str, usize)> = Vec::new();
             let lead = over_complete.first().copied();
@@ -393,10 +414,35 @@ fn written_atoms(
             }
             counts
                 .iter()
-                .map(|(s, n)| if *n > 1 { format!("{s}{n}") } else { (*s).to_string() })
+                .map(|(s, n)| {
+                    if *n > 1 {
+                        format!("{s}{n}")
+                    } else {
+                        (*s).to_string()
+                    }
+                })
                 .collect()
         }
     }
+}
+
+/// Three atoms in chain order (the one nearest the other two in the middle, the ends
+/// non-hydrogen first); other counts as given.
+pub fn chain_order(atoms: &[usize], molecule: &Molecule) -> Vec<usize> {
+    if atoms.len() != 3 {
+        return atoms.to_vec();
+    }
+    let distance =
+        |a: usize, b: usize| (molecule.atoms[a].position - molecule.atoms[b].position).norm();
+    let spread = |a: usize| atoms.iter().map(|&o| distance(a, o)).sum::<f64>();
+    let middle = *atoms
+        .iter()
+        .min_by(|&&a, &&b| spread(a).total_cmp(&spread(b)).then(a.cmp(&b)))
+        .unwrap_or(&atoms[1]);
+    let is_h = |a: usize| molecule.atoms[a].element.atomic_number() == 1;
+    let mut ends: Vec<usize> = atoms.iter().copied().filter(|&a| a != middle).collect();
+    ends.sort_by_key(|&a| (is_h(a), a));
+    vec![ends[0], middle, ends[1]]
 }
 
 /// Union–find over the pieces.

@@ -30,9 +30,7 @@ use nalgebra::DMatrix;
 use serde::{Deserialize, Serialize};
 use thiserror::Error;
 
-pub use classify::{
-    BondCharacter, LocalizedOrbital, OrbitalClass, OrbitalSpace, ThreeCentreUnit,
-};
+pub use classify::{BondCharacter, LocalizedOrbital, OrbitalClass, OrbitalSpace, ThreeCentreUnit};
 pub use hybrids::{AtomHybrid, AtomHybrids, HybridKind, HybridModel, HybridShape, read_shape};
 pub use ladder::{Ladder, LadderLevel, LocalizedKind};
 pub use lewis::{LewisStructure, MulticentreKind};
@@ -122,7 +120,12 @@ pub fn analyze(
         });
     }
     let form = &eht.orthonormal;
-    if form.coefficients.iter().chain(form.hamiltonian.iter()).any(|x| !x.is_finite()) {
+    if form
+        .coefficients
+        .iter()
+        .chain(form.hamiltonian.iter())
+        .any(|x| !x.is_finite())
+    {
         return Err(LocalizedError::NonFinite);
     }
     let options = LocalizationOptions {
@@ -132,12 +135,20 @@ pub fn analyze(
     let mut orbitals = Vec::new();
     let mut columns = Vec::new();
     let mut spaces = Vec::new();
-    for space in [OrbitalSpace::Doubly, OrbitalSpace::Partly, OrbitalSpace::Virtual] {
+    for space in [
+        OrbitalSpace::Doubly,
+        OrbitalSpace::Partly,
+        OrbitalSpace::Virtual,
+    ] {
         let members = space_members(&eht.occupations, space);
         if members.is_empty() {
             continue;
         }
-        let result = localize::localize(&form.coefficients.select_columns(&members), &layout, &options);
+        let result = localize::localize(
+            &form.coefficients.select_columns(&members),
+            &layout,
+            &options,
+        );
         spaces.push(SpaceReport {
             space,
             orbitals: members.len(),
@@ -182,8 +193,11 @@ pub fn analyze(
         .map(|a| f64::from(a.element.valence_electrons()))
         .collect();
     let lewis = lewis::read(&orbitals, &units, &wiberg, &valence);
-    let (hybrids, mut notes) = hybrids::read_hybrids(&orbitals, &vectors, &units, &layout, molecule);
-    notes.splice(0..0, picture_notes(&orbitals, &units, &lewis, &spaces, eht, molecule));
+    let (hybrids, hybrid_notes) =
+        hybrids::read_hybrids(&orbitals, &vectors, &units, &layout, molecule);
+    let mut notes = picture_notes(&orbitals, &units, &lewis, &spaces, eht, molecule);
+    notes.extend(hybrid_notes);
+    notes.extend(hybrids::bent_notes(&hybrids, molecule));
     Ok(LocalizedPicture {
         method: settings.method,
         orbitals,
@@ -226,7 +240,11 @@ pub fn true_occupancies(
 
 /// The vector with its largest component positive.
 fn signed(v: nalgebra::DVector<f64>) -> nalgebra::DVector<f64> {
-    if v.is_empty() || v[v.iamax()] >= 0.0 { v } else { -v }
+    if v.is_empty() || v[v.iamax()] >= 0.0 {
+        v
+    } else {
+        -v
+    }
 }
 
 /// Notes on what the Lewis picture cannot say plainly.
@@ -239,7 +257,13 @@ fn picture_notes(
     molecule: &Molecule,
 ) -> Vec<String> {
     let symbol = |a: usize| molecule.atoms[a].element.symbol();
-    let written = |atoms: &[usize]| atoms.iter().map(|&a| format!("{}{a}", symbol(a))).collect::<Vec<_>>().join("–");
+    let written = |atoms: &[usize]| {
+        ladder::chain_order(atoms, molecule)
+            .iter()
+            .map(|&a| format!("{}{a}", symbol(a)))
+            .collect::<Vec<_>>()
+            .join("–")
+    };
     let mut notes = Vec::new();
     for space in spaces.iter().filter(|s| !s.converged) {
         notes.push(format!(
@@ -249,19 +273,45 @@ fn picture_notes(
     }
     let unpaired = lewis.unpaired_electrons();
     if eht.open_shell || unpaired > 1e-9 {
-        let partly = orbitals.iter().filter(|o| o.space == OrbitalSpace::Partly).count();
+        let partly = orbitals
+            .iter()
+            .filter(|o| o.space == OrbitalSpace::Partly)
+            .count();
         notes.push(format!(
             "open shell: {unpaired:.2} electrons sit in {partly} partly occupied orbitals (shown with their own occupancies); a closed-shell Lewis structure would contradict the canonical MOs"
         ));
     }
+    let mut unit_notes: Vec<(String, usize)> = Vec::new();
     for unit in units {
-        notes.push(format!(
-            "three-centre four-electron {} bond {} (bond order ½ per link): one Lewis structure cannot show it",
-            if unit.character == BondCharacter::Pi { "π" } else { "σ" },
+        let text = format!(
+            "{} {}",
+            if unit.character == BondCharacter::Pi {
+                "π"
+            } else {
+                "σ"
+            },
             written(&unit.atoms)
+        );
+        match unit_notes.iter_mut().find(|(t, _)| *t == text) {
+            Some((_, count)) => *count += 1,
+            None => unit_notes.push((text, 1)),
+        }
+    }
+    for (text, count) in unit_notes {
+        let what = if count == 1 {
+            "a three-centre four-electron bond".to_string()
+        } else {
+            format!("{count} three-centre four-electron bonds")
+        };
+        notes.push(format!(
+            "{what} ({text}; bond order ½ per link): one Lewis structure cannot show it"
         ));
     }
-    for bond in lewis.multicentre.iter().filter(|m| m.kind == MulticentreKind::Delocalized) {
+    for bond in lewis
+        .multicentre
+        .iter()
+        .filter(|m| m.kind == MulticentreKind::Delocalized)
+    {
         notes.push(format!(
             "multicentre bond over {} ({:.2} electrons): the two-centre picture does not fit here, the ladder shows the multicentre orbitals",
             written(&bond.atoms),

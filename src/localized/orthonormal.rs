@@ -79,7 +79,11 @@ pub fn overlap_roots(overlap: &DMatrix<f64>) -> Option<(DMatrix<f64>, DMatrix<f6
         return None;
     }
     let eigen = SymmetricEigen::new(overlap.clone());
-    if eigen.eigenvalues.iter().any(|&l| l.is_nan() || l < SINGULAR_OVERLAP) {
+    if eigen
+        .eigenvalues
+        .iter()
+        .any(|&l| l.is_nan() || l < SINGULAR_OVERLAP)
+    {
         return None;
     }
     let scaled = |power: f64| {
@@ -153,7 +157,16 @@ mod tests {
     fn h2_bond_has_wiberg_index_one() {
         // Two functions, one doubly occupied bonding MO (1, 1)/√2: P̃ = [[1, 1], [1, 1]],
         // W = 1 (a single bond; Wiberg 1968).
-        let c = DMatrix::from_row_slice(2, 2, &[0.5f64.sqrt(), 0.5f64.sqrt(), 0.5f64.sqrt(), -(0.5f64.sqrt())]);
+        let c = DMatrix::from_row_slice(
+            2,
+            2,
+            &[
+                0.5f64.sqrt(),
+                0.5f64.sqrt(),
+                0.5f64.sqrt(),
+                -(0.5f64.sqrt()),
+            ],
+        );
         let layout = AtomLayout::from_atom_map(&[0, 1], vec![AngularKind::S; 2]).unwrap();
         let w = wiberg_indices(&c, &[2.0, 0.0], &layout);
         assert!((w[(0, 1)] - 1.0).abs() < 1e-12);

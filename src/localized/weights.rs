@@ -121,7 +121,12 @@ pub fn weights(
         Metric::Overlap(s) => s.iter().all(|x| x.is_finite()),
         Metric::Orthonormal => true,
     };
-    if !overlap_finite || localized.iter().chain(canonical.iter()).any(|x| !x.is_finite()) {
+    if !overlap_finite
+        || localized
+            .iter()
+            .chain(canonical.iter())
+            .any(|x| !x.is_finite())
+    {
         return Err(LinkError::NonFinite);
     }
     let sb = match metric {

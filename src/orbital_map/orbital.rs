@@ -116,7 +116,9 @@ pub fn resolve(analysis: &Analysis, reference: OrbitalRef) -> Result<ResolvedOrb
                 .map(|atom| atom.element.symbol())
                 .unwrap_or("?");
             let target = match entry.partner {
-                Some(partner) => format!("{} → atom {partner}", entry.kind.as_str().replace('_', " ")),
+                Some(partner) => {
+                    format!("{} → atom {partner}", entry.kind.as_str().replace('_', " "))
+                }
                 None => entry.kind.as_str().replace('_', " "),
             };
             let mut atoms = vec![entry.center];

@@ -180,14 +180,10 @@ impl PointData {
                 }
             }
         }
-        for entry in analysis
-            .hybrid_entries
-            .iter()
-            .filter(|e| {
-                e.model == HybridModel::Localized
-                    && matches!(e.kind, HybridKind::Bond | HybridKind::LonePair)
-            })
-        {
+        for entry in analysis.hybrid_entries.iter().filter(|e| {
+            e.model == HybridModel::Localized
+                && matches!(e.kind, HybridKind::Bond | HybridKind::LonePair)
+        }) {
             raw.push((
                 entry.model.as_str().to_string(),
                 entry.center,
