@@ -94,9 +94,12 @@ pub fn diagram_for(analysis: &Analysis, options: &DiagramOptions) -> Diagram {
                     ));
                     LOCALIZED_KEY_OFFSET + n
                 });
+                // Electrons are drawn as the Lewis structure places them (2, 1, 0); the
+                // level's true occupancy in the canonical density (1.995 for a σ bond,
+                // 0.005 for its σ*) is in the Inspector and the reports.
                 LevelInput {
                     energy_ev: level.energy_ev,
-                    occupancy: level.occupancy,
+                    occupancy: level.lewis_occupancy,
                     label: level.label.clone(),
                     group,
                     key: LOCALIZED_KEY_OFFSET + n,
