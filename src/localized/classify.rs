@@ -15,11 +15,13 @@
 //! orbital (O2's singly occupied π*).
 //!
 //! **Three-centre four-electron bonds** (G. C. Pimentel, J. Chem. Phys. 19, 446 (1951)):
-//! two doubly occupied orbitals that each hold at least [`SHARED_CENTRE_POPULATION`] on a
-//! common atom, whose normalized parts there are nearly parallel (|cos| ≥
-//! [`PARALLEL_COSINE`]: they use the same local orbital) and whose other main atoms
-//! differ — the π systems of CO2 and ozone, the axial F–Cl–F of ClF3. Both thresholds are
-//! our choice (stated in the README). Each orbital joins at most one unit, best pairs first.
+//! two doubly occupied two-centre orbitals that share exactly one centre and whose
+//! normalized parts there are nearly parallel (|cos| ≥ [`PARALLEL_COSINE`]: they use the
+//! same local orbital) — the π systems of CO2, ozone and nitrite, the σ system of FHF⁻.
+//! (Orbitals with three or more centres, as benzene's π orbitals, are multicentre bonds of
+//! their own; hypervalent σ systems whose parts on the centre differ more, as PF5's axial
+//! bonds, show up as over-complete atoms instead.) The threshold is our choice (stated in
+//! the README). Each orbital joins at most one unit, best pairs first.
 
 use nalgebra::{DMatrix, DVectorView, Vector3};
 use serde::{Deserialize, Serialize};
@@ -32,8 +34,6 @@ use crate::chem::molecule::Molecule;
 pub const CENTRE_SHARE: f64 = 0.9;
 /// A two-centre orbital is π above this perpendicular-p share (our rule, no source).
 pub const PI_PERPENDICULAR_SHARE: f64 = 0.5;
-/// The shared atom of a 3c–4e pair holds at least this population of each orbital.
-pub const SHARED_CENTRE_POPULATION: f64 = 0.05;
 /// The two orbitals' parts on the shared atom are parallel to at least this |cos|.
 pub const PARALLEL_COSINE: f64 = 0.9;
 
@@ -226,31 +226,27 @@ pub fn three_centre_units(
     molecule: &Molecule,
 ) -> Vec<ThreeCentreUnit> {
     let mut candidates: Vec<(f64, usize, usize, usize)> = Vec::new();
-    let doubly: Vec<usize> = (0..orbitals.len())
-        .filter(|&k| orbitals[k].space == OrbitalSpace::Doubly)
+    let eligible: Vec<usize> = (0..orbitals.len())
+        .filter(|&k| {
+            orbitals[k].space == OrbitalSpace::Doubly
+                && orbitals[k].class == OrbitalClass::TwoCentre
+        })
         .collect();
-    let all: Vec<Vec<f64>> = doubly
-        .iter()
-        .map(|&k| populations(vectors.column(k), layout))
-        .collect();
-    for (x, &i) in doubly.iter().enumerate() {
-        for (y, &j) in doubly.iter().enumerate().skip(x + 1) {
-            for atom in 0..layout.atoms() {
-                if all[x][atom] < SHARED_CENTRE_POPULATION
-                    || all[y][atom] < SHARED_CENTRE_POPULATION
-                {
-                    continue;
-                }
-                let (pi, pj) = (
-                    part_on(vectors.column(i), layout, atom),
-                    part_on(vectors.column(j), layout, atom),
-                );
-                let dot: f64 = pi.iter().zip(&pj).map(|(a, b)| a * b).sum();
-                let cosine = dot.abs() / (all[x][atom] * all[y][atom]).sqrt();
-                let (oi, oj) = (main_other(&all[x], atom), main_other(&all[y], atom));
-                if cosine >= PARALLEL_COSINE && oi != oj {
-                    candidates.push((cosine, i, j, atom));
-                }
+    for (x, &i) in eligible.iter().enumerate() {
+        for &j in eligible.iter().skip(x + 1) {
+            let Some((atom, first, second)) = shared_centre(&orbitals[i], &orbitals[j]) else {
+                continue;
+            };
+            let (pi, pj) = (
+                part_on(vectors.column(i), layout, atom),
+                part_on(vectors.column(j), layout, atom),
+            );
+            let norm = |v: &[f64]| v.iter().map(|c| c * c).sum::<f64>().sqrt();
+            let dot: f64 = pi.iter().zip(&pj).map(|(a, b)| a * b).sum();
+            let cosine = dot.abs() / (norm(&pi) * norm(&pj)).max(1e-300);
+            if cosine >= PARALLEL_COSINE {
+                candidates.push((cosine, i, j, atom));
+                let _ = (first, second);
             }
         }
     }
@@ -260,9 +256,10 @@ pub fn three_centre_units(
         if orbitals[i].unit.is_some() || orbitals[j].unit.is_some() {
             continue;
         }
-        let index = |k: usize| doubly.iter().position(|&d| d == k).unwrap_or(0);
-        let first = main_other(&all[index(i)], atom);
-        let second = main_other(&all[index(j)], atom);
+        let other = |k: usize| orbitals[k].centres.iter().copied().find(|&a| a != atom);
+        let (Some(first), Some(second)) = (other(i), other(j)) else {
+            continue;
+        };
         let character = unit_character(vectors, layout, molecule, [i, j], [first, atom, second]);
         for k in [i, j] {
             orbitals[k].unit = Some(units.len());
@@ -277,15 +274,25 @@ pub fn three_centre_units(
     units
 }
 
-/// The atom other than `atom` with the largest population.
-fn main_other(populations: &[f64], atom: usize) -> usize {
-    (0..populations.len())
-        .filter(|&a| a != atom)
-        .max_by(|&a, &b| populations[a].total_cmp(&populations[b]).then(b.cmp(&a)))
-        .unwrap_or(atom)
+/// The centre two two-centre orbitals share, with their other centres, when they share
+/// exactly one.
+fn shared_centre(a: &LocalizedOrbital, b: &LocalizedOrbital) -> Option<(usize, usize, usize)> {
+    let shared: Vec<usize> = a
+        .centres
+        .iter()
+        .copied()
+        .filter(|x| b.centres.contains(x))
+        .collect();
+    let [atom] = shared[..] else {
+        return None;
+    };
+    let other = |o: &LocalizedOrbital| o.centres.iter().copied().find(|&x| x != atom);
+    Some((atom, other(a)?, other(b)?))
 }
 
-/// π when both orbitals are π toward their terminal atom.
+/// π when the shared centre's part is mostly p perpendicular to the plane of the three
+/// atoms (a bent unit: ozone's π, not the in-plane lone pairs of NO2 leaning on N), or,
+/// for a linear unit (CO2), when both orbitals are π toward their terminal atom.
 fn unit_character(
     vectors: &DMatrix<f64>,
     layout: &AtomLayout,
@@ -293,10 +300,26 @@ fn unit_character(
     orbitals: [usize; 2],
     atoms: [usize; 3],
 ) -> BondCharacter {
-    let pi = |k: usize, terminal: usize| {
-        character_of(vectors.column(k), layout, molecule, terminal, atoms[1]) == BondCharacter::Pi
-    };
-    if pi(orbitals[0], atoms[0]) && pi(orbitals[1], atoms[2]) {
+    let position = |a: usize| molecule.atoms[a].position;
+    let normal =
+        (position(atoms[0]) - position(atoms[1])).cross(&(position(atoms[2]) - position(atoms[1])));
+    if normal.norm() < 1e-3 {
+        let pi = |k: usize, terminal: usize| {
+            character_of(vectors.column(k), layout, molecule, terminal, atoms[1])
+                == BondCharacter::Pi
+        };
+        return if pi(orbitals[0], atoms[0]) && pi(orbitals[1], atoms[2]) {
+            BondCharacter::Pi
+        } else {
+            BondCharacter::Sigma
+        };
+    }
+    let normal = normal.normalize();
+    let part = part_on(vectors.column(orbitals[0]), layout, atoms[1]);
+    let kinds = &layout.kinds[layout.ranges[atoms[1]].clone()];
+    let along = p_vector(&part, kinds).dot(&normal).powi(2);
+    let total: f64 = part.iter().map(|c| c * c).sum();
+    if total > 0.0 && along / total > PI_PERPENDICULAR_SHARE {
         BondCharacter::Pi
     } else {
         BondCharacter::Sigma

@@ -2,8 +2,8 @@
 //! that every hybrid model uses.
 //!
 //! **From the localized orbitals** (the default model, `localized`): on each atom, the
-//! parts of the occupied localized orbitals that have the atom among their centres (or
-//! share it in a 3c–4e unit) are its hybrids. Nearly parallel parts (|cos| ≥
+//! parts of the occupied localized orbitals that have the atom among their centres are its
+//! hybrids. Nearly parallel parts (|cos| ≥
 //! [`super::classify::PARALLEL_COSINE`]: the two orbitals of a 3c–4e unit on its centre,
 //! O2's π and π* on each O) are one hybrid, the dominant direction of their
 //! population-weighted projector. The hybrids of an atom are then orthonormalized among
@@ -290,7 +290,7 @@ fn atom_hybrids(
     molecule: &Molecule,
 ) -> AtomHybrids {
     let kinds = &layout.kinds[layout.ranges[atom].clone()];
-    let clusters = clusters_on(atom, orbitals, vectors, units, layout);
+    let clusters = clusters_on(atom, orbitals, vectors, layout);
     let representatives: Vec<DVector<f64>> = clusters.iter().map(Cluster::representative).collect();
     let (frame, rank) = lowdin_frame(&representatives, kinds.len());
     let over_complete = rank < representatives.len();
@@ -332,13 +332,11 @@ fn clusters_on(
     atom: usize,
     orbitals: &[LocalizedOrbital],
     vectors: &DMatrix<f64>,
-    units: &[ThreeCentreUnit],
     layout: &AtomLayout,
 ) -> Vec<Cluster> {
     let mut parts: Vec<(usize, DVector<f64>, f64)> = Vec::new();
     for (k, orbital) in orbitals.iter().enumerate() {
-        let in_unit = orbital.unit.is_some_and(|u| units[u].atoms.contains(&atom));
-        if orbital.space == OrbitalSpace::Virtual || !(orbital.centres.contains(&atom) || in_unit) {
+        if orbital.space == OrbitalSpace::Virtual || !orbital.centres.contains(&atom) {
             continue;
         }
         let part = DVector::from_vec(part_on(vectors.column(k), layout, atom));
@@ -347,15 +345,31 @@ fn clusters_on(
             parts.push((k, part / population.sqrt(), population));
         }
     }
-    parts.sort_by(|a, b| b.2.total_cmp(&a.2).then(a.0.cmp(&b.0)));
+    // Doubly occupied parts first, largest first; then the partly occupied ones.
+    let partly = |k: usize| orbitals[k].space == OrbitalSpace::Partly;
+    parts.sort_by(|a, b| {
+        partly(a.0)
+            .cmp(&partly(b.0))
+            .then(b.2.total_cmp(&a.2))
+            .then(a.0.cmp(&b.0))
+    });
+    let dimension = layout.ranges[atom].len();
     let mut clusters: Vec<Cluster> = Vec::new();
     for part in parts {
-        match clusters
-            .iter_mut()
-            .find(|c| c.members[0].1.dot(&part.1).abs() >= PARALLEL_COSINE)
-        {
-            Some(cluster) => cluster.members.push(part),
-            None => clusters.push(Cluster {
+        let best = clusters
+            .iter()
+            .enumerate()
+            .map(|(c, cluster)| (c, cluster.members[0].1.dot(&part.1).abs()))
+            .max_by(|a, b| a.1.total_cmp(&b.1));
+        // A radical's orbital is made of the local orbitals already there (it is the
+        // antibonding partner of a bond or lone pair): where a new hybrid would not fit,
+        // it joins the most parallel one instead of making the atom over-complete.
+        let crowded = partly(part.0) && clusters.len() >= dimension;
+        match best {
+            Some((c, cosine)) if cosine >= PARALLEL_COSINE || crowded => {
+                clusters[c].members.push(part)
+            }
+            _ => clusters.push(Cluster {
                 members: vec![part],
             }),
         }

@@ -113,7 +113,7 @@ pub fn build(
         for (rank, (&energy, vector)) in energies.iter().zip(&coefficients).enumerate() {
             let lewis_occupancy = remaining.clamp(0.0, 2.0);
             remaining -= lewis_occupancy;
-            let (kind, label) = naming.level(rank, energies.len(), lewis_occupancy, electrons);
+            let (kind, label) = naming.level(rank, energies.len(), lewis_occupancy);
             levels.push(LadderLevel {
                 kind,
                 label,
@@ -320,14 +320,8 @@ impl Naming {
         }
     }
 
-    /// Kind and label of level `rank` of `count`, holding `lewis` of the unit's `electrons`.
-    fn level(
-        &self,
-        rank: usize,
-        count: usize,
-        lewis: f64,
-        electrons: f64,
-    ) -> (LocalizedKind, String) {
+    /// Kind and label of level `rank` of `count`, holding `lewis` electrons.
+    fn level(&self, rank: usize, count: usize, lewis: f64) -> (LocalizedKind, String) {
         let w = &self.written;
         match &self.shape {
             UnitShape::OneCentre => {
@@ -348,14 +342,20 @@ impl Naming {
                     (_, true) => (LocalizedKind::PiStar, format!("π*({w})")),
                 }
             }
-            UnitShape::Multicentre(prefix, three_centre) => {
-                let nonbonding = *three_centre && count == 3 && rank == 1 && electrons > 3.0;
-                if nonbonding {
-                    (
-                        LocalizedKind::MulticentreNonbonding,
-                        format!("{prefix}nb({w})"),
-                    )
-                } else if lewis > 1e-9 {
+            UnitShape::Multicentre(prefix, true) if count == 3 => match rank {
+                // A 3c–4e unit: bonding, nonbonding, antibonding by construction.
+                0 => (LocalizedKind::Multicentre, format!("{prefix}({w})")),
+                1 => (
+                    LocalizedKind::MulticentreNonbonding,
+                    format!("{prefix}nb({w})"),
+                ),
+                _ => (
+                    LocalizedKind::MulticentreAntibond,
+                    format!("{prefix}*({w})"),
+                ),
+            },
+            UnitShape::Multicentre(prefix, _) => {
+                if lewis > 1e-9 {
                     (LocalizedKind::Multicentre, format!("{prefix}({w})"))
                 } else {
                     (

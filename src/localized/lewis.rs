@@ -10,10 +10,11 @@
 //!   partly occupied orbitals with their electrons; **multicentre bonds**: orbitals with
 //!   three or more centres and the 3c–4e units.
 //! - **Formal charges**: valence electrons minus the electrons an atom owns, where an atom
-//!   owns all of a one-centre orbital's, half of a two-centre orbital's, 1/k of a k-centre
-//!   orbital's, and in a 3c–4e unit 1 (centre) and 3/2 (each terminal), the average of the
-//!   two resonance structures X–A :X⁻ ↔ ⁻X: A–X (common practice, no source for the
-//!   equal split of multicentre electrons).
+//!   owns all of a one-centre orbital's, half of a two-centre orbital's (the usual
+//!   convention), a multicentre orbital's in proportion to its population there (our
+//!   choice, no source: benzene's three-centre π orbitals then leave no alternating
+//!   charges), and in a 3c–4e unit 1 (centre) and 3/2 (each terminal), the average of the
+//!   two resonance structures X–A :X⁻ ↔ ⁻X: A–X.
 //! - **Lewis share**: the fraction of the electrons in one- and two-centre orbitals outside
 //!   3c–4e units — how well one Lewis structure describes the molecule (1 for methane;
 //!   lower for ozone, benzene's π system, diborane).
@@ -126,8 +127,7 @@ pub fn read(
         if orbital.unit.is_some() {
             continue;
         }
-        let share = orbital.occupancy / orbital.centres.len().max(1) as f64;
-        for &atom in &orbital.centres {
+        for (&atom, share) in orbital.centres.iter().zip(ownership(orbital)) {
             owned[atom] += share;
         }
         if orbital.space == OrbitalSpace::Partly {
@@ -203,6 +203,25 @@ pub fn read(
         1.0
     };
     structure
+}
+
+/// The electrons each centre owns: all of a one-centre orbital's, half of a two-centre
+/// orbital's, and of a multicentre orbital's in proportion to the centres' populations.
+fn ownership(orbital: &LocalizedOrbital) -> Vec<f64> {
+    match orbital.class {
+        OrbitalClass::OneCentre | OrbitalClass::TwoCentre => {
+            let share = orbital.occupancy / orbital.centres.len().max(1) as f64;
+            vec![share; orbital.centres.len()]
+        }
+        OrbitalClass::MultiCentre => {
+            let total: f64 = orbital.centre_populations.iter().sum();
+            orbital
+                .centre_populations
+                .iter()
+                .map(|q| orbital.occupancy * q / total.max(1e-300))
+                .collect()
+        }
+    }
 }
 
 fn sorted(atoms: &[usize]) -> Vec<usize> {

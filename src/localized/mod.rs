@@ -307,15 +307,21 @@ fn picture_notes(
             "{what} ({text}; bond order ½ per link): one Lewis structure cannot show it"
         ));
     }
-    for bond in lewis
+    let delocalized: Vec<String> = lewis
         .multicentre
         .iter()
         .filter(|m| m.kind == MulticentreKind::Delocalized)
-    {
+        .map(|bond| format!("{} ({:.2} e)", written(&bond.atoms), bond.electrons))
+        .collect();
+    if !delocalized.is_empty() {
+        let what = if delocalized.len() == 1 {
+            "a multicentre bond".to_string()
+        } else {
+            format!("{} multicentre bonds", delocalized.len())
+        };
         notes.push(format!(
-            "multicentre bond over {} ({:.2} electrons): the two-centre picture does not fit here, the ladder shows the multicentre orbitals",
-            written(&bond.atoms),
-            bond.electrons
+            "{what} over {}: the two-centre picture does not fit here, the ladder shows the multicentre orbitals",
+            delocalized.join(", ")
         ));
     }
     if lewis.lewis_share < LOW_LEWIS_SHARE {
