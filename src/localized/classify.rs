@@ -217,6 +217,128 @@ fn interaction(
     2.0 * total
 }
 
+/// Rotates, within each group of doubly occupied two-centre orbitals on the same pair of
+/// atoms, the orbitals so that their parts on a shared atom line up with those of another
+/// group (the singular vectors of the matrix of part overlaps). The groups of a linear
+/// molecule's π pairs (CO2) may be rotated arbitrarily by the localization, which leaves
+/// the function unchanged; this makes the two O's π orbitals share one C p orbital each
+/// before the 3c–4e search. Only groups that then meet [`PARALLEL_COSINE`] are rotated,
+/// each group at most once. Returns the orbitals changed (to be classified again).
+pub fn align_shared_centres(
+    orbitals: &[LocalizedOrbital],
+    vectors: &mut DMatrix<f64>,
+    layout: &AtomLayout,
+) -> Vec<usize> {
+    let mut touched: Vec<bool> = vec![false; orbitals.len()];
+    let mut rotated = Vec::new();
+    for atom in 0..layout.atoms() {
+        let groups = groups_at(orbitals, atom);
+        for (a, first) in groups.iter().enumerate() {
+            for second in groups.iter().skip(a + 1) {
+                if first.len() + second.len() < 3 || first.iter().chain(second).any(|&k| touched[k])
+                {
+                    continue;
+                }
+                if let Some(changes) = aligned(vectors, layout, atom, first, second) {
+                    for (k, vector) in changes {
+                        vectors.set_column(k, &vector);
+                        touched[k] = true;
+                        rotated.push(k);
+                    }
+                }
+            }
+        }
+    }
+    rotated
+}
+
+/// The doubly occupied two-centre orbitals with `atom` as a centre, grouped by the other.
+fn groups_at(orbitals: &[LocalizedOrbital], atom: usize) -> Vec<Vec<usize>> {
+    let mut groups: Vec<(usize, Vec<usize>)> = Vec::new();
+    for (k, orbital) in orbitals.iter().enumerate() {
+        if orbital.space != OrbitalSpace::Doubly
+            || orbital.class != OrbitalClass::TwoCentre
+            || !orbital.centres.contains(&atom)
+        {
+            continue;
+        }
+        let Some(other) = orbital.centres.iter().copied().find(|&x| x != atom) else {
+            continue;
+        };
+        match groups.iter_mut().find(|(x, _)| *x == other) {
+            Some((_, list)) => list.push(k),
+            None => groups.push((other, vec![k])),
+        }
+    }
+    groups.into_iter().map(|(_, list)| list).collect()
+}
+
+/// The rotated orbitals of two groups when a singular pair of their parts on `atom` is
+/// parallel to [`PARALLEL_COSINE`]; None otherwise.
+fn aligned(
+    vectors: &DMatrix<f64>,
+    layout: &AtomLayout,
+    atom: usize,
+    first: &[usize],
+    second: &[usize],
+) -> Option<Vec<(usize, nalgebra::DVector<f64>)>> {
+    let parts = |group: &[usize]| {
+        let rows: Vec<Vec<f64>> = group
+            .iter()
+            .map(|&k| part_on(vectors.column(k), layout, atom))
+            .collect();
+        DMatrix::from_fn(rows.len(), rows[0].len(), |i, j| rows[i][j])
+    };
+    let (p1, p2) = (parts(first), parts(second));
+    let svd = (&p1 * p2.transpose()).svd(true, true);
+    let (u, v_t) = (svd.u?, svd.v_t?);
+    let parallel = (0..svd.singular_values.len()).any(|i| {
+        let (a, b) = (u.column(i).transpose() * &p1, v_t.row(i) * &p2);
+        svd.singular_values[i] / (a.norm() * b.norm()).max(1e-300) >= PARALLEL_COSINE
+    });
+    if !parallel {
+        return None;
+    }
+    let mut out = Vec::new();
+    for (group, basis) in [
+        (first, completed(&u)),
+        (second, completed(&v_t.transpose())),
+    ] {
+        for (i, &k) in group.iter().enumerate() {
+            let mut vector = nalgebra::DVector::zeros(vectors.nrows());
+            for (j, &source) in group.iter().enumerate() {
+                vector += vectors.column(source) * basis[(j, i)];
+            }
+            out.push((k, vector));
+        }
+    }
+    Some(out)
+}
+
+/// An orthonormal k × k basis whose first columns are the orthonormal columns of `m`.
+fn completed(m: &DMatrix<f64>) -> DMatrix<f64> {
+    let k = m.nrows();
+    let mut columns: Vec<nalgebra::DVector<f64>> =
+        m.column_iter().map(|c| c.into_owned()).collect();
+    for i in 0..k {
+        if columns.len() == k {
+            break;
+        }
+        let mut e = nalgebra::DVector::zeros(k);
+        e[i] = 1.0;
+        for _ in 0..2 {
+            for c in &columns {
+                let p = c.dot(&e);
+                e.axpy(-p, c, 1.0);
+            }
+        }
+        if e.norm() > 1e-6 {
+            columns.push(e.normalize());
+        }
+    }
+    DMatrix::from_columns(&columns)
+}
+
 /// Finds the 3c–4e units among the doubly occupied orbitals (columns of `vectors`, in the
 /// order of `orbitals`), marks their members and returns them.
 pub fn three_centre_units(

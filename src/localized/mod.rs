@@ -106,6 +106,25 @@ pub struct LocalizedPicture {
     pub layout: AtomLayout,
 }
 
+/// One wavefunction as the localized picture reads it: canonical MOs over an orthonormal
+/// atomic basis, their occupations, and the Hamiltonian (or Fock matrix) in that basis.
+#[derive(Clone, Copy, Debug)]
+pub struct Wavefunction<'a> {
+    pub layout: &'a AtomLayout,
+    /// Columns: the canonical MOs over the orthonormal basis.
+    pub coefficients: &'a DMatrix<f64>,
+    pub occupations: &'a [f64],
+    pub hamiltonian: &'a DMatrix<f64>,
+}
+
+/// Orbitals already localized (one occupation block), for [`read_localized`].
+#[derive(Clone, Debug)]
+pub struct LocalizedBlock {
+    pub report: SpaceReport,
+    /// Columns over the orthonormal basis.
+    pub orbitals: DMatrix<f64>,
+}
+
 /// Localizes, classifies and reads the Lewis structure and hybrids of `eht`.
 pub fn analyze(
     molecule: &Molecule,
@@ -128,36 +147,74 @@ pub fn analyze(
     {
         return Err(LocalizedError::NonFinite);
     }
+    let wavefunction = Wavefunction {
+        layout: &layout,
+        coefficients: &form.coefficients,
+        occupations: &eht.occupations,
+        hamiltonian: &form.hamiltonian,
+    };
+    Ok(analyze_wavefunction(molecule, wavefunction, settings))
+}
+
+/// [`analyze`] for any wavefunction in an orthonormal atomic basis (the reference tests
+/// feed PySCF's orbitals through it).
+pub fn analyze_wavefunction(
+    molecule: &Molecule,
+    wavefunction: Wavefunction<'_>,
+    settings: &LocalizationSettings,
+) -> LocalizedPicture {
     let options = LocalizationOptions {
         method: settings.method,
         max_sweeps: settings.max_sweeps,
     };
-    let mut orbitals = Vec::new();
-    let mut columns = Vec::new();
-    let mut spaces = Vec::new();
+    let mut blocks = Vec::new();
     for space in [
         OrbitalSpace::Doubly,
         OrbitalSpace::Partly,
         OrbitalSpace::Virtual,
     ] {
-        let members = space_members(&eht.occupations, space);
+        let members = space_members(wavefunction.occupations, space);
         if members.is_empty() {
             continue;
         }
         let result = localize::localize(
-            &form.coefficients.select_columns(&members),
-            &layout,
+            &wavefunction.coefficients.select_columns(&members),
+            wavefunction.layout,
             &options,
         );
-        spaces.push(SpaceReport {
-            space,
-            orbitals: members.len(),
-            sweeps: result.sweeps,
-            converged: result.converged,
-            function_value: result.function_value,
+        blocks.push(LocalizedBlock {
+            report: SpaceReport {
+                space,
+                orbitals: members.len(),
+                sweeps: result.sweeps,
+                converged: result.converged,
+                function_value: result.function_value,
+            },
+            orbitals: result.orbitals,
         });
-        let occupancies = true_occupancies(&result.orbitals, &form.coefficients, &eht.occupations);
-        let mut block: Vec<(LocalizedOrbital, nalgebra::DVector<f64>)> = result
+    }
+    read_localized(molecule, wavefunction, settings.method, blocks)
+}
+
+/// Classifies localized orbitals and reads the Lewis structure and hybrids from them.
+pub fn read_localized(
+    molecule: &Molecule,
+    wavefunction: Wavefunction<'_>,
+    method: LocalizationMethod,
+    blocks: Vec<LocalizedBlock>,
+) -> LocalizedPicture {
+    let layout = wavefunction.layout;
+    let mut orbitals = Vec::new();
+    let mut columns = Vec::new();
+    let mut spaces = Vec::new();
+    for block in blocks {
+        let space = block.report.space;
+        let occupancies = true_occupancies(
+            &block.orbitals,
+            wavefunction.coefficients,
+            wavefunction.occupations,
+        );
+        let mut classified: Vec<(LocalizedOrbital, nalgebra::DVector<f64>)> = block
             .orbitals
             .column_iter()
             .zip(occupancies)
@@ -167,26 +224,39 @@ pub fn analyze(
                     vector.as_view(),
                     space,
                     occupancy,
-                    &layout,
-                    &form.hamiltonian,
+                    layout,
+                    wavefunction.hamiltonian,
                     molecule,
                 );
                 (orbital, vector)
             })
             .collect();
-        block.sort_by(|a, b| a.0.energy_ev.total_cmp(&b.0.energy_ev));
-        for (orbital, vector) in block {
+        classified.sort_by(|a, b| a.0.energy_ev.total_cmp(&b.0.energy_ev));
+        for (orbital, vector) in classified {
             orbitals.push(orbital);
             columns.push(vector);
         }
+        spaces.push(block.report);
     }
-    let vectors = if columns.is_empty() {
+    let mut vectors = if columns.is_empty() {
         DMatrix::zeros(layout.functions(), 0)
     } else {
         DMatrix::from_columns(&columns)
     };
-    let units = classify::three_centre_units(&mut orbitals, &vectors, &layout, molecule);
-    let wiberg = orthonormal::wiberg_indices(&form.coefficients, &eht.occupations, &layout);
+    for k in classify::align_shared_centres(&orbitals, &mut vectors, layout) {
+        let (space, occupancy) = (orbitals[k].space, orbitals[k].occupancy);
+        orbitals[k] = classify::classify_orbital(
+            vectors.column(k),
+            space,
+            occupancy,
+            layout,
+            wavefunction.hamiltonian,
+            molecule,
+        );
+    }
+    let units = classify::three_centre_units(&mut orbitals, &vectors, layout, molecule);
+    let wiberg =
+        orthonormal::wiberg_indices(wavefunction.coefficients, wavefunction.occupations, layout);
     let valence: Vec<f64> = molecule
         .atoms
         .iter()
@@ -194,12 +264,12 @@ pub fn analyze(
         .collect();
     let lewis = lewis::read(&orbitals, &units, &wiberg, &valence);
     let (hybrids, hybrid_notes) =
-        hybrids::read_hybrids(&orbitals, &vectors, &units, &layout, molecule);
-    let mut notes = picture_notes(&orbitals, &units, &lewis, &spaces, eht, molecule);
+        hybrids::read_hybrids(&orbitals, &vectors, &units, layout, molecule);
+    let mut notes = picture_notes(&orbitals, &units, &lewis, &spaces, molecule);
     notes.extend(hybrid_notes);
     notes.extend(hybrids::bent_notes(&hybrids, molecule));
-    Ok(LocalizedPicture {
-        method: settings.method,
+    LocalizedPicture {
+        method,
         orbitals,
         vectors,
         units,
@@ -207,8 +277,8 @@ pub fn analyze(
         hybrids,
         spaces,
         notes,
-        layout,
-    })
+        layout: layout.clone(),
+    }
 }
 
 /// Indices of the canonical MOs of one space.
@@ -253,7 +323,6 @@ fn picture_notes(
     units: &[ThreeCentreUnit],
     lewis: &LewisStructure,
     spaces: &[SpaceReport],
-    eht: &EhtResult,
     molecule: &Molecule,
 ) -> Vec<String> {
     let symbol = |a: usize| molecule.atoms[a].element.symbol();
@@ -272,7 +341,7 @@ fn picture_notes(
         ).to_lowercase());
     }
     let unpaired = lewis.unpaired_electrons();
-    if eht.open_shell || unpaired > 1e-9 {
+    if unpaired > 1e-9 {
         let partly = orbitals
             .iter()
             .filter(|o| o.space == OrbitalSpace::Partly)
