@@ -183,7 +183,7 @@ pub fn read(
             if order[(a, b)].abs() > 1e-9 || index >= LISTED_WIBERG_INDEX {
                 structure.bonds.push(LewisBond {
                     atoms: [a, b],
-                    order: order[(a, b)],
+                    order: rounded(order[(a, b)]),
                     index,
                 });
             }
@@ -196,12 +196,16 @@ pub fn read(
             count: lone[atom],
         })
         .collect();
-    structure.formal_charges = valence.iter().zip(&owned).map(|(v, e)| v - e).collect();
-    structure.lewis_share = if total > 0.0 {
+    structure.formal_charges = valence
+        .iter()
+        .zip(&owned)
+        .map(|(v, e)| rounded(v - e))
+        .collect();
+    structure.lewis_share = rounded(if total > 0.0 {
         lewis_electrons / total
     } else {
         1.0
-    };
+    });
     structure
 }
 
@@ -222,6 +226,13 @@ fn ownership(orbital: &LocalizedOrbital) -> Vec<f64> {
                 .collect()
         }
     }
+}
+
+/// Counts of electrons and halves are exact in the Lewis structure; rounding noise
+/// (2.0000000000000027) is cut at 1e-9 so the reports read cleanly.
+fn rounded(value: f64) -> f64 {
+    let clean = (value * 1e9).round() / 1e9;
+    if clean == 0.0 { 0.0 } else { clean }
 }
 
 fn sorted(atoms: &[usize]) -> Vec<usize> {

@@ -4,8 +4,9 @@
 use serde::Serialize;
 
 use crate::analysis::{
-    Analysis, HybridEntry, LinkSummary, LocalizedSummary, OrbitalSummary, StageError,
+    Analysis, HybridEntry, LinkSummary, LocalizedSummary, OrbitalSummary, StageError, StageNote,
 };
+use crate::localized::{LewisStructure, LocalizationMethod, LocalizedOrbital, SpaceReport};
 
 #[derive(Serialize)]
 struct AtomEntry {
@@ -54,7 +55,20 @@ struct JsonReport<'a> {
     hybrids: &'a [HybridEntry],
     localized: &'a [LocalizedSummary],
     links: &'a [LinkSummary],
+    /// The Lewis structure read from the localized orbitals (null without MOs).
+    lewis: Option<&'a LewisStructure>,
+    /// How the localized orbitals were found, and the orbitals themselves.
+    localization: Option<LocalizationEntry<'a>>,
     errors: &'a [StageError],
+    notes: &'a [StageNote],
+}
+
+#[derive(Serialize)]
+struct LocalizationEntry<'a> {
+    method: LocalizationMethod,
+    exponent: u32,
+    spaces: &'a [SpaceReport],
+    orbitals: &'a [LocalizedOrbital],
 }
 
 fn molecule_entry(analysis: &Analysis) -> MoleculeEntry {
@@ -108,7 +122,15 @@ pub fn to_json(analysis: &Analysis) -> String {
         hybrids: &analysis.hybrid_entries,
         localized: &analysis.localized,
         links: &analysis.links,
+        lewis: analysis.picture.as_ref().map(|p| &p.lewis),
+        localization: analysis.picture.as_ref().map(|p| LocalizationEntry {
+            method: p.method,
+            exponent: p.method.exponent(),
+            spaces: &p.spaces,
+            orbitals: &p.orbitals,
+        }),
         errors: &analysis.errors,
+        notes: &analysis.notes,
     };
     serde_json::to_string_pretty(&report)
         .unwrap_or_else(|error| format!("{{\"internal_error\": \"{error}\"}}"))

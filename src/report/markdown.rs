@@ -38,12 +38,5 @@ pub fn to_markdown(analysis: &Analysis) -> String {
     for table in tables(analysis) {
         write_table(&mut out, &table);
     }
-    for error in &analysis.errors {
-        out.push_str(&format!(
-            "\n> {:?} stage failed: {}\n",
-            error.stage,
-            cell(&error.message)
-        ));
-    }
     out
 }

@@ -1,9 +1,11 @@
 //! Reports of an `Analysis`: plain text for the terminal, the JSON of DESIGN §5.5, and
-//! Markdown and CSV tables (canonical MOs, hybrids, localized orbitals, correlation
-//! weights) built from one table model so that both formats hold the same numbers.
+//! Markdown and CSV tables (messages, canonical MOs, the Lewis structure, hybrids,
+//! localized orbitals, correlation weights) built from one table model so that both
+//! formats hold the same numbers. Every stage error and note is in every format.
 
 mod csv;
 mod json;
+mod lewis;
 mod markdown;
 pub mod tables;
 mod text;

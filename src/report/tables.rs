@@ -2,7 +2,8 @@
 //! the molecule, the canonical MOs (energy, occupancy, label, composition as Mulliken
 //! gross shares, R. S. Mulliken, J. Chem. Phys. 23, 1833 (1955)), the hybrids per centre
 //! (partner, λ of spλ with ∞ for a pure p orbital, %s, energy, bending), the localized
-//! orbitals and the correlation weights. Numbers use an ASCII minus and fixed decimals so
+//! orbitals and the correlation weights; the messages and the Lewis structure come from
+//! `super::lewis`. Numbers use an ASCII minus and fixed decimals so
 //! that spreadsheets read them; atom indices are 0-based in file order, as in the JSON.
 
 use crate::analysis::Analysis;
@@ -35,15 +36,18 @@ pub fn atom_name(analysis: &Analysis, atom: usize) -> String {
 /// All tables of the report, in order.
 pub fn tables(analysis: &Analysis) -> Vec<Table> {
     vec![
+        super::lewis::messages_table(analysis),
         molecule_table(analysis),
         orbital_table(analysis),
+        super::lewis::lewis_table(analysis),
         hybrid_table(analysis),
         localized_table(analysis),
         weight_table(analysis),
     ]
 }
 
-fn fixed(value: f64, decimals: usize) -> String {
+/// A number with fixed decimals, never "-0.000".
+pub(super) fn fixed(value: f64, decimals: usize) -> String {
     let text = format!("{value:.decimals$}");
     // "-0.000" reads as a sign where there is none.
     if text.starts_with('-') && text[1..].chars().all(|c| c == '0' || c == '.') {
@@ -76,6 +80,15 @@ fn molecule_table(analysis: &Analysis) -> Table {
         (
             "lone_pair_mixing",
             analysis.settings.lone_pair_mixing.to_string(),
+        ),
+        (
+            "localization",
+            analysis
+                .settings
+                .localization
+                .method
+                .description()
+                .to_string(),
         ),
     ];
     Table {
@@ -155,6 +168,8 @@ fn hybrid_table(analysis: &Analysis) -> Table {
                 lambda_cell(entry.lambda),
                 fixed(entry.s_percent, 1),
                 fixed(entry.p_percent, 1),
+                fixed(entry.d_percent, 1),
+                fixed(entry.share, 3),
                 optional(entry.energy_ev, 3),
                 optional(entry.bending_degrees, 1),
                 entry.model.as_str().to_string(),
@@ -171,6 +186,8 @@ fn hybrid_table(analysis: &Analysis) -> Table {
             "lambda",
             "s_percent",
             "p_percent",
+            "d_percent",
+            "share",
             "energy_ev",
             "bending_degrees",
             "model",
@@ -196,7 +213,8 @@ fn localized_table(analysis: &Analysis) -> Table {
                 orbital.kind.as_str().to_string(),
                 atoms.join("–"),
                 fixed(orbital.energy_ev, 3),
-                fixed(orbital.occupancy, 2),
+                fixed(orbital.occupancy, 3),
+                fixed(orbital.lewis_occupancy, 2),
                 fixed(orbital.captured, 3),
             ]
         })
@@ -211,6 +229,7 @@ fn localized_table(analysis: &Analysis) -> Table {
             "atoms",
             "energy_ev",
             "occupancy",
+            "lewis_occupancy",
             "captured",
         ],
         rows,

@@ -1,5 +1,6 @@
 //! The plain-text report for the terminal (`diptych analyze`): atoms, bonds, symmetry,
-//! the MO table, hybrids and localized orbitals with their canonical constituents.
+//! the MO table, the Lewis structure, hybrids and localized orbitals with their canonical
+//! constituents, errors and notes.
 
 use crate::analysis::{Analysis, LinkSummary};
 use crate::diagram::style::lambda_text;
@@ -24,7 +25,7 @@ pub fn to_text(analysis: &Analysis) -> String {
             atom.position.z
         ));
     }
-    text.push_str("\nBonds\n");
+    text.push_str("\nBonds by distance (a first guess for drawing; the Lewis structure below is the wavefunction's)\n");
     if molecule.bonds.is_empty() {
         text.push_str("  (none)\n");
     }
@@ -46,12 +47,45 @@ pub fn to_text(analysis: &Analysis) -> String {
     if let Some(eht) = &analysis.eht {
         text.push_str(&orbital_table(analysis, eht));
     }
+    text.push_str(&lewis_text(analysis));
     text.push_str(&hybrid_table(analysis));
     text.push_str(&localized_table(analysis));
     for error in &analysis.errors {
         text.push_str(&format!(
             "\n{:?} stage failed: {}\n",
             error.stage, error.message
+        ));
+    }
+    if !analysis.notes.is_empty() {
+        text.push_str("\nNotes\n");
+        for note in &analysis.notes {
+            text.push_str(&format!(
+                "  [{}] {}\n",
+                format!("{:?}", note.stage).to_lowercase(),
+                note.message
+            ));
+        }
+    }
+    text
+}
+
+/// The Lewis structure read from the localized orbitals, one line per item (the same
+/// rows as the report table).
+fn lewis_text(analysis: &Analysis) -> String {
+    let table = super::lewis::lewis_table(analysis);
+    if table.rows.is_empty() {
+        return String::new();
+    }
+    let mut text = format!("\n{}\n", table.title);
+    for row in &table.rows {
+        let detail = if row[3].is_empty() {
+            String::new()
+        } else {
+            format!("  ({})", row[3])
+        };
+        text.push_str(&format!(
+            "  {:<14} {:<14} {}{}\n",
+            row[0], row[1], row[2], detail
         ));
     }
     text
@@ -174,11 +208,12 @@ fn localized_table(analysis: &Analysis) -> String {
             .map(|&a| atom_name(analysis, a))
             .collect();
         text.push_str(&format!(
-            "  {:<10} {:<8} {:>8.3} eV  occ {:.0}  captured {:.2}:  {}\n",
+            "  {:<10} {:<8} {:>8.3} eV  occ {:.3} (Lewis {:.1})  captured {:.2}:  {}\n",
             orbital.label,
             atoms.join("–"),
             orbital.energy_ev,
             orbital.occupancy,
+            orbital.lewis_occupancy,
             orbital.captured,
             list.join(", ")
         ));
