@@ -98,11 +98,14 @@ pub struct ThreeCentreUnit {
     pub character: BondCharacter,
 }
 
-/// Classifies one orbital (a column over the orthonormal basis).
+/// Classifies one orbital (a column over the orthonormal basis) of energy ⟨b|H̃|b⟩
+/// `energy_ev` (computed by the caller, for all orbitals at once).
+#[allow(clippy::too_many_arguments)]
 pub fn classify_orbital(
     orbital: DVectorView<'_, f64>,
     space: OrbitalSpace,
     occupancy: f64,
+    energy_ev: f64,
     layout: &AtomLayout,
     hamiltonian: &DMatrix<f64>,
     molecule: &Molecule,
@@ -114,7 +117,6 @@ pub fn classify_orbital(
         2 => OrbitalClass::TwoCentre,
         _ => OrbitalClass::MultiCentre,
     };
-    let energy_ev = orbital.dot(&(hamiltonian * orbital));
     let (character, antibonding) = if class == OrbitalClass::TwoCentre {
         let (a, b) = (centres[0], centres[1]);
         (

@@ -214,16 +214,25 @@ pub fn read_localized(
             wavefunction.coefficients,
             wavefunction.occupations,
         );
+        let applied = wavefunction.hamiltonian * &block.orbitals;
+        let energies: Vec<f64> = block
+            .orbitals
+            .column_iter()
+            .zip(applied.column_iter())
+            .map(|(b, hb)| b.dot(&hb))
+            .collect();
         let mut classified: Vec<(LocalizedOrbital, nalgebra::DVector<f64>)> = block
             .orbitals
             .column_iter()
             .zip(occupancies)
-            .map(|(column, occupancy)| {
+            .zip(energies)
+            .map(|((column, occupancy), energy)| {
                 let vector = signed(column.into_owned());
                 let orbital = classify::classify_orbital(
                     vector.as_view(),
                     space,
                     occupancy,
+                    energy,
                     layout,
                     wavefunction.hamiltonian,
                     molecule,
@@ -245,10 +254,14 @@ pub fn read_localized(
     };
     for k in classify::align_shared_centres(&orbitals, &mut vectors, layout) {
         let (space, occupancy) = (orbitals[k].space, orbitals[k].occupancy);
+        let energy = vectors
+            .column(k)
+            .dot(&(wavefunction.hamiltonian * vectors.column(k)));
         orbitals[k] = classify::classify_orbital(
             vectors.column(k),
             space,
             occupancy,
+            energy,
             layout,
             wavefunction.hamiltonian,
             molecule,
