@@ -1,13 +1,15 @@
-//! The Lewis bookkeeping on the RDKit reference geometries (tests/reference/
-//! rdkit_geometries/): every molecule there has an ordinary Lewis structure, so every heavy
-//! atom must be a centre and the localized ladder must hold exactly the valence electrons.
+//! The two-centre hybrid models on the Lewis structure read from the wavefunction, over
+//! the RDKit reference geometries (tests/reference/rdkit_geometries/): every molecule
+//! there is a closed shell, both models run without a stage error and converge, and every
+//! heavy atom is either a centre of the model or named in a note (the atoms the
+//! wavefunction puts into multicentre units are left to its own hybrids).
 
 use std::path::PathBuf;
 
+use diptych::analysis::{Analysis, Settings, Stage};
 use diptych::chem::Molecule;
 use diptych::chem::io::xyz::parse_xyz;
-use diptych::eht::{EhtSettings, run};
-use diptych::hybrid::{HybridModel, HybridSettings, LocalizedKind, analyze};
+use diptych::hybrid::{HybridModel, HybridSettings};
 
 fn reference_dir() -> PathBuf {
     PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("tests/reference/rdkit_geometries")
@@ -19,7 +21,7 @@ fn load(name: &str) -> Molecule {
 }
 
 #[test]
-fn every_reference_molecule_gets_a_complete_lewis_ladder() {
+fn every_reference_molecule_is_described_or_noted() {
     let mut names: Vec<String> = std::fs::read_dir(reference_dir())
         .unwrap()
         .filter_map(|e| {
@@ -29,78 +31,44 @@ fn every_reference_molecule_gets_a_complete_lewis_ladder() {
         .collect();
     names.sort();
     assert!(names.len() > 30);
+    let mut centres = 0;
     for name in &names {
         let molecule = load(name);
-        let eht = run(&molecule, &EhtSettings::default()).unwrap();
         for model in [HybridModel::Geometric, HybridModel::MaxOverlap] {
-            let settings = HybridSettings {
-                model,
-                ..HybridSettings::default()
+            let settings = Settings {
+                hybrid: HybridSettings {
+                    model,
+                    ..HybridSettings::default()
+                },
+                ..Settings::default()
             };
-            let analysis = analyze(&molecule, &eht, &settings);
+            let analysis = Analysis::run(&molecule, &settings).expect("analyses");
             assert!(analysis.errors.is_empty(), "{name}: {:?}", analysis.errors);
-            assert!(analysis.converged, "{name}");
-            let heavy = molecule
-                .atoms
-                .iter()
-                .filter(|a| a.element.atomic_number() > 2)
-                .count();
-            assert_eq!(analysis.centres.len(), heavy, "{name}");
+            let hybrids = analysis.hybrids.as_ref().expect("hybrid stage");
+            assert!(hybrids.converged, "{name}");
+            for (atom, a) in molecule.atoms.iter().enumerate() {
+                if a.element.atomic_number() <= 2 {
+                    continue;
+                }
+                let noted = analysis.notes.iter().any(|n| {
+                    n.stage == Stage::Hybrids && n.message.starts_with(&format!("atom {atom} ("))
+                });
+                assert!(
+                    hybrids.centre(atom).is_some() != noted,
+                    "{name} {model:?}: atom {atom}"
+                );
+            }
             assert!(
-                analysis.centres.iter().all(|c| !c.single_electron),
+                hybrids.centres.iter().all(|c| !c.single_electron),
                 "{name}: closed-shell Lewis structure"
             );
-            let electrons: f64 = analysis.localized.iter().map(|o| o.occupancy).sum();
-            assert_eq!(electrons, eht.electrons as f64, "{name}");
-            let bonds = analysis
-                .localized
-                .iter()
-                .filter(|o| o.kind == LocalizedKind::Bond)
-                .count();
-            assert_eq!(bonds, molecule.bonds.len(), "{name}: one σ per bond");
+            for centre in &hybrids.centres {
+                assert_eq!(centre.hybrids.len(), 4, "{name}");
+                let s: f64 = centre.hybrids.iter().map(|h| h.s_percent).sum();
+                assert!((s - 100.0).abs() < 1e-8, "{name}: sum rule {s}");
+            }
+            centres += hybrids.centres.len();
         }
     }
-}
-
-#[test]
-fn charge_separated_structures() {
-    // DMSO as S+–O−, ammonia borane as N+–B− (the usual Lewis structures with formal
-    // charges; common practice, no source).
-    for (name, plus, minus) in [
-        ("dimethyl_sulfoxide", "S", "O"),
-        ("ammonia_borane", "N", "B"),
-    ] {
-        let molecule = load(name);
-        let eht = run(&molecule, &EhtSettings::default()).unwrap();
-        let analysis = analyze(&molecule, &eht, &HybridSettings::default());
-        let charge = |symbol: &str| {
-            analysis
-                .centres
-                .iter()
-                .find(|c| c.element == symbol)
-                .unwrap()
-                .formal_charge
-        };
-        assert_eq!(charge(plus), 1, "{name}");
-        assert_eq!(charge(minus), -1, "{name}");
-    }
-    // A user override wins over the automatic assignment: DMSO's S with two lone pairs
-    // needs five orbitals and is reported as hypervalent instead.
-    let molecule = load("dimethyl_sulfoxide");
-    let eht = run(&molecule, &EhtSettings::default()).unwrap();
-    let s = (0..molecule.atoms.len())
-        .find(|&a| molecule.atoms[a].element.symbol() == "S")
-        .unwrap();
-    let mut settings = HybridSettings::default();
-    settings.lone_pair_overrides.insert(s, 2);
-    let analysis = analyze(&molecule, &eht, &settings);
-    assert!(analysis.errors.iter().any(
-        |e| matches!(e, diptych::hybrid::HybridError::Hypervalent { atom, .. } if *atom == s)
-    ));
-    assert!(analysis.centre(s).is_none());
-    assert_eq!(
-        analysis.centres.len(),
-        3,
-        "the other heavy atoms are still described"
-    );
+    assert!(centres > 2 * names.len(), "{centres} centres described");
 }

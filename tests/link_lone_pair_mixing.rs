@@ -12,7 +12,7 @@ use std::path::PathBuf;
 use diptych::chem::ao::AngularKind;
 use diptych::chem::io::xyz::parse_xyz;
 use diptych::eht::{EhtResult, EhtSettings, run};
-use diptych::lone_pair_mixing::{MixingComparison, compare_mixing};
+use diptych::localized::switch::{MixingComparison, compare_mixing};
 use nalgebra::DVector;
 
 fn ammonia() -> EhtResult {
@@ -157,7 +157,7 @@ fn hybrid_lone_pair_sits_at_the_hybrid_energy() {
 
 #[test]
 fn bad_lone_pairs_are_typed_errors() {
-    use diptych::lone_pair_mixing::MixingError;
+    use diptych::localized::switch::MixingError;
     let eht = ammonia();
     let n = eht.overlap.nrows();
     let zero = DVector::zeros(n);
@@ -193,34 +193,26 @@ fn bad_lone_pairs_are_typed_errors() {
     }
 }
 
-/// The localized model's lone pair: the PM n(N) orbital restricted to nitrogen, held
-/// non-bonding. It gives a level at its own ⟨l|H|l⟩ and leaves the e levels alone (it is
-/// a1 by symmetry).
+/// The localized picture's lone pair: the n(N) orbital (intrinsic bond orbital, taken
+/// back to the AOs) restricted to nitrogen, held non-bonding. It gives a level at its own
+/// ⟨l|H|l⟩ and leaves the e levels alone (it is a1 by symmetry).
 #[test]
 fn localized_lone_pair_restricted_to_its_centre() {
-    use diptych::localize::{LocalizeOptions, LocalizedKind, describe, localize_occupied};
-    use diptych::lone_pair_mixing::restrict_to_atom;
+    use diptych::localized::switch::restrict_to_atom;
+    use diptych::localized::{LocalizationSettings, OrbitalClass, OrbitalSpace, analyze};
     let path = PathBuf::from(env!("CARGO_MANIFEST_DIR")).join("demo_molecules/ammonia.xyz");
     let text = std::fs::read_to_string(path).expect("demo geometry");
     let molecule = parse_xyz(&text, "ammonia").expect("valid XYZ").molecule;
     let eht = run(&molecule, &EhtSettings::default()).expect("EHT runs");
-    let localized = localize_occupied(&eht, &LocalizeOptions::default()).expect("localizes");
-    let d = describe(
-        &localized.orbitals,
-        &eht.overlap,
-        &eht.hamiltonian,
-        &eht.basis,
-        &molecule,
-    )
-    .expect("describe");
-    let k = d
+    let picture = analyze(&molecule, &eht, &LocalizationSettings::default()).expect("picture");
+    let k = picture
+        .orbitals
         .iter()
-        .position(|o| o.kind == LocalizedKind::LonePair)
+        .position(|o| o.space == OrbitalSpace::Doubly && o.class == OrbitalClass::OneCentre)
         .expect("n(N)");
-    let lp = restrict_to_atom(
-        &localized.orbitals.column(k).clone_owned(),
-        eht.basis.atom_ranges[0].clone(),
-    );
+    assert_eq!(picture.orbitals[k].centres, vec![0]);
+    let over_aos = &eht.orthonormal.orthogonalizer * picture.vectors.column(k);
+    let lp = restrict_to_atom(&over_aos, eht.basis.atom_ranges[0].clone());
     let comparison = compare_mixing(&eht, &[lp]).expect("switch");
     let e = comparison.off.lone_pair_energies[0];
     assert!(
@@ -236,7 +228,7 @@ fn localized_lone_pair_restricted_to_its_centre() {
 
 #[test]
 fn mismatched_matrices_are_typed_errors() {
-    use diptych::lone_pair_mixing::{MixingError, hold_non_bonding};
+    use diptych::localized::switch::{MixingError, hold_non_bonding};
     use nalgebra::DMatrix;
     let h = DMatrix::<f64>::identity(3, 3);
     let s = DMatrix::<f64>::identity(4, 4);

@@ -1,28 +1,38 @@
-//! Pipek–Mezey orbitals and correlation weights on every demo molecule
+//! Localized orbitals and correlation weights on every demo molecule
 //! (demo_molecules/*.xyz through the extended Hückel stage).
 //!
 //! Checks (reasoning named beside each):
-//! - PM orbitals are an orthogonal rotation U of the occupied MOs (b = C_occ U), so
-//!   w_kj = U_jk² for occupied j: rows and columns of the occupied block add to 1 (1e-8);
-//! - completeness: the MOs of the full valence basis satisfy C Cᵀ = S⁻¹, so Σ_j w_kj = 1 for
-//!   any orbital (1e-8), checked on PM orbitals and on fixed arbitrary vectors;
-//! - the localizer converges and the labels are those of the Lewis structure.
+//! - the localized orbitals of each space (doubly, partly occupied, empty) are an
+//!   orthogonal rotation U of that space's canonical MOs (b = C̃_space U, over the
+//!   orthonormal basis), so w_kj = U_jk² within the space and 0 outside it: rows and
+//!   columns add to 1, and each orbital's occupancy Σ_j n_j w_kj is the picture's (1e-8);
+//! - completeness: the MOs of the full valence basis satisfy C Cᵀ = S⁻¹ (C̃ C̃ᵀ = 1), so
+//!   Σ_j w_kj = 1 for any orbital (1e-8), checked on fixed arbitrary vectors in both
+//!   metrics;
+//! - the localized ladder is one orthonormal basis of the valence space, so its weights
+//!   to the canonical MOs add to 1 both ways (DESIGN §4.6);
+//! - the localizer converges, and the ladder's labels are those of the Lewis structure.
 
 use std::path::PathBuf;
 
+use diptych::analysis::{Analysis, Settings};
 use diptych::chem::Molecule;
 use diptych::chem::io::xyz::parse_xyz;
 use diptych::eht::{DEGENERACY_TOLERANCE_EV, EhtResult, EhtSettings, run};
-use diptych::link::{LINK_THRESHOLD, LevelSets, link, weights};
-use diptych::localize::{LocalizeOptions, LocalizedKind, describe, localize_occupied};
+use diptych::localized::weights::{LINK_THRESHOLD, LevelSets, Links, Metric, link, weights};
+use diptych::localized::{LocalizedKind, OrbitalSpace};
 use nalgebra::DMatrix;
 
-fn demo(name: &str) -> (Molecule, EhtResult) {
+fn load(name: &str) -> Molecule {
     let path = PathBuf::from(env!("CARGO_MANIFEST_DIR"))
         .join("demo_molecules")
         .join(format!("{name}.xyz"));
     let text = std::fs::read_to_string(&path).expect("demo geometry");
-    let molecule = parse_xyz(&text, name).expect("valid XYZ").molecule;
+    parse_xyz(&text, name).expect("valid XYZ").molecule
+}
+
+fn demo(name: &str) -> (Molecule, EhtResult) {
+    let molecule = load(name);
     let eht = run(&molecule, &EhtSettings::default()).expect("EHT runs");
     (molecule, eht)
 }
@@ -41,16 +51,53 @@ fn demo_names() -> Vec<String> {
     names
 }
 
+fn space_of(occupation: f64) -> OrbitalSpace {
+    if occupation >= 2.0 - 1e-9 {
+        OrbitalSpace::Doubly
+    } else if occupation <= 1e-9 {
+        OrbitalSpace::Virtual
+    } else {
+        OrbitalSpace::Partly
+    }
+}
+
+fn sparse_list_adds_up(links: &Links, name: &str) {
+    for k in 0..links.weights.nrows() {
+        let listed: f64 = links
+            .entries
+            .iter()
+            .filter(|e| e.localized == k)
+            .map(|e| e.weight)
+            .sum();
+        assert!(
+            listed > 1.0 - LINK_THRESHOLD * links.sets.len() as f64 && listed <= 1.0 + 1e-8,
+            "{name}: orbital {k} listed {listed}"
+        );
+    }
+}
+
 #[test]
 fn weights_are_unitary_and_complete_for_every_demo_molecule() {
     for name in demo_names() {
-        let (molecule, eht) = demo(&name);
-        let localized = localize_occupied(&eht, &LocalizeOptions::default()).expect("localizes");
-        assert!(localized.converged, "{name}: not converged");
+        let molecule = load(&name);
+        let analysis = Analysis::run(&molecule, &Settings::default()).expect("analyses");
+        let eht = analysis.eht.as_ref().expect("EHT ran");
+        let picture = analysis.picture.as_ref().expect("localized picture");
+        assert!(
+            picture.spaces.iter().all(|s| s.converged),
+            "{name}: {:?}",
+            picture.spaces
+        );
+        let n = eht.energies.len();
+        assert_eq!(
+            picture.vectors.ncols(),
+            n,
+            "{name}: every valence MO localized"
+        );
         let links = link(
-            &localized.orbitals,
-            &eht.coefficients,
-            &eht.overlap,
+            &picture.vectors,
+            &eht.orthonormal.coefficients,
+            Metric::Orthonormal,
             &eht.occupations,
             LevelSets::ByEnergy {
                 energies: &eht.energies,
@@ -59,59 +106,88 @@ fn weights_are_unitary_and_complete_for_every_demo_molecule() {
             LINK_THRESHOLD,
         )
         .expect("links");
-        let occupied: Vec<usize> = (0..eht.energies.len())
-            .filter(|&j| eht.occupations[j] > 0.0)
-            .collect();
         let w = &links.weights;
-        for k in 0..w.nrows() {
-            let occ: f64 = occupied.iter().map(|&j| w[(k, j)]).sum();
+        for (k, orbital) in picture.orbitals.iter().enumerate() {
+            let inside: f64 = (0..n)
+                .filter(|&j| space_of(eht.occupations[j]) == orbital.space)
+                .map(|j| w[(k, j)])
+                .sum();
             let all: f64 = w.row(k).sum();
             assert!(
-                (occ - 1.0).abs() < 1e-8,
-                "{name}: orbital {k} occupied share {occ}"
+                (inside - 1.0).abs() < 1e-8,
+                "{name}: orbital {k} share of its own space {inside}"
             );
             assert!((all - 1.0).abs() < 1e-8, "{name}: orbital {k} total {all}");
-            assert!((links.captured[k] - 1.0).abs() < 1e-8);
-            // Closed shell: each PM orbital holds two electrons.
-            assert!((links.occupancy[k] - 2.0).abs() < 1e-8, "{name}: occupancy");
-            // Sparse list: the set weights above the threshold add to ~1.
-            let listed: f64 = links
-                .entries
-                .iter()
-                .filter(|e| e.localized == k)
-                .map(|e| e.weight)
-                .sum();
             assert!(
-                listed > 1.0 - LINK_THRESHOLD * links.sets.len() as f64 && listed <= 1.0 + 1e-8
+                (links.occupancy[k] - orbital.occupancy).abs() < 1e-8,
+                "{name}: occupancy {} vs {}",
+                links.occupancy[k],
+                orbital.occupancy
             );
+            if orbital.space == OrbitalSpace::Doubly {
+                assert!((orbital.occupancy - 2.0).abs() < 1e-8, "{name}");
+                assert!((links.captured[k] - 1.0).abs() < 1e-8, "{name}");
+            }
+            if orbital.space == OrbitalSpace::Virtual {
+                assert!(orbital.occupancy.abs() < 1e-8, "{name}");
+                assert!(links.captured[k].abs() < 1e-8, "{name}");
+            }
         }
-        for &j in &occupied {
+        for j in 0..n {
             let column: f64 = w.column(j).sum();
             assert!(
                 (column - 1.0).abs() < 1e-8,
                 "{name}: canonical {j} column {column}"
             );
         }
-        let described = describe(
-            &localized.orbitals,
-            &eht.overlap,
-            &eht.hamiltonian,
-            &eht.basis,
-            &molecule,
-        )
-        .expect("describe");
-        let labels: Vec<String> = described
-            .iter()
-            .map(|d| format!("{} {:.2} eV", d.label, d.energy_ev))
-            .collect();
-        eprintln!(
-            "{name}: P = {:.6} in {} sweeps; {labels:?}",
-            localized.function_value, localized.sweeps
+        sparse_list_adds_up(&links, &name);
+
+        // The ladder, over the AOs with S: a partition both ways, and the analysis reports
+        // the same captured shares and occupancies.
+        let ladder = DMatrix::from_columns(
+            &analysis
+                .localized
+                .iter()
+                .map(|o| nalgebra::DVector::from_column_slice(&o.coefficients))
+                .collect::<Vec<_>>(),
         );
+        assert_eq!(
+            ladder.ncols(),
+            n,
+            "{name}: the ladder spans the valence space"
+        );
+        let ladder_links = link(
+            &ladder,
+            &eht.coefficients,
+            Metric::Overlap(&eht.overlap),
+            &eht.occupations,
+            LevelSets::None,
+            LINK_THRESHOLD,
+        )
+        .expect("ladder links");
+        for (k, level) in analysis.localized.iter().enumerate() {
+            let row: f64 = ladder_links.weights.row(k).sum();
+            assert!(
+                (row - 1.0).abs() < 1e-8,
+                "{name}: {} row {row}",
+                level.label
+            );
+            assert!((ladder_links.captured[k] - level.captured).abs() < 1e-8);
+            assert!((ladder_links.occupancy[k] - level.occupancy).abs() < 1e-8);
+        }
+        for j in 0..n {
+            let column: f64 = ladder_links.weights.column(j).sum();
+            assert!(
+                (column - 1.0).abs() < 1e-8,
+                "{name}: MO {j} column {column}"
+            );
+        }
+        sparse_list_adds_up(&ladder_links, &name);
     }
 }
 
-/// Fixed arbitrary orbitals (not in the occupied space) still have Σ_j w_kj = 1.
+/// Fixed arbitrary orbitals (not in the occupied space) still have Σ_j w_kj = 1, over
+/// the AOs with S and over the orthonormal basis.
 #[test]
 fn completeness_for_arbitrary_orbitals() {
     for name in ["ammonia", "formaldehyde", "cyclopropane", "chloromethane"] {
@@ -124,18 +200,25 @@ fn completeness_for_arbitrary_orbitals() {
                 .wrapping_add(1);
             (state >> 11) as f64 / (1u64 << 53) as f64 - 0.5
         });
-        let w = weights(&b, &eht.coefficients, &eht.overlap).expect("weights");
-        for k in 0..5 {
-            let total: f64 = w.row(k).sum();
-            assert!(
-                (total - 1.0).abs() < 1e-8,
-                "{name}: arbitrary orbital {k}: Σ_j w = {total}"
-            );
+        let over_aos =
+            weights(&b, &eht.coefficients, Metric::Overlap(&eht.overlap)).expect("weights");
+        let orthonormal =
+            weights(&b, &eht.orthonormal.coefficients, Metric::Orthonormal).expect("weights");
+        for w in [over_aos, orthonormal] {
+            for k in 0..5 {
+                let total: f64 = w.row(k).sum();
+                assert!(
+                    (total - 1.0).abs() < 1e-8,
+                    "{name}: arbitrary orbital {k}: Σ_j w = {total}"
+                );
+            }
         }
     }
 }
 
-/// The Lewis structures of the demo molecules (textbook counts): bonds, lone pairs, π bonds.
+/// The Lewis structures of the demo molecules (textbook counts): the occupied levels of
+/// the localized ladder are these bonds, lone pairs and π bonds, and each lone pair sits
+/// on its atom alone.
 #[test]
 fn demo_labels_follow_the_lewis_structure() {
     let expected: &[(&str, &[(&str, usize)])] = &[
@@ -153,30 +236,23 @@ fn demo_labels_follow_the_lewis_structure() {
         ),
     ];
     for (name, counts) in expected {
-        let (molecule, eht) = demo(name);
-        let localized = localize_occupied(&eht, &LocalizeOptions::default()).expect("localizes");
-        let described = describe(
-            &localized.orbitals,
-            &eht.overlap,
-            &eht.hamiltonian,
-            &eht.basis,
-            &molecule,
-        )
-        .expect("describe");
+        let molecule = load(name);
+        let analysis = Analysis::run(&molecule, &Settings::default()).expect("analyses");
+        let occupied: Vec<_> = analysis
+            .localized
+            .iter()
+            .filter(|o| o.lewis_occupancy > 1.0)
+            .collect();
+        let labels: Vec<&String> = occupied.iter().map(|o| &o.label).collect();
         let total: usize = counts.iter().map(|(_, n)| n).sum();
-        assert_eq!(described.len(), total, "{name}");
+        assert_eq!(occupied.len(), total, "{name}: {labels:?}");
         for (label, n) in counts.iter() {
-            let found = described.iter().filter(|d| d.label == *label).count();
-            assert_eq!(
-                found,
-                *n,
-                "{name}: {label}: {:?}",
-                described.iter().map(|d| &d.label).collect::<Vec<_>>()
-            );
+            let found = occupied.iter().filter(|o| o.label == *label).count();
+            assert_eq!(found, *n, "{name}: {label}: {labels:?}");
         }
-        for d in &described {
-            if d.kind == LocalizedKind::LonePair {
-                assert_eq!(d.hybrids.len(), 1);
+        for o in &occupied {
+            if o.kind == LocalizedKind::LonePair {
+                assert_eq!(o.atoms.len(), 1, "{name}: {}", o.label);
             }
         }
     }
