@@ -255,7 +255,7 @@ fn ammonia_json(extra: &[&str]) -> serde_json::Value {
 
 #[test]
 fn ammonia_hybrids_follow_the_geometry() {
-    let json = ammonia_json(&[]);
+    let json = ammonia_json(&["--model", "geometric"]);
     let hybrids = json["hybrids"].as_array().unwrap();
     let bonds: Vec<&serde_json::Value> = hybrids.iter().filter(|h| h["kind"] == "bond").collect();
     let lone: Vec<&serde_json::Value> = hybrids
@@ -276,7 +276,7 @@ fn ammonia_hybrids_follow_the_geometry() {
         .as_array()
         .unwrap()
         .iter()
-        .filter(|l| l["occupancy"].as_f64().unwrap() > 0.0)
+        .filter(|l| l["lewis_occupancy"].as_f64().unwrap() > 0.0)
         .count();
     assert_eq!(occupied, 4, "three σ(N–H) and n(N)");
 }

@@ -76,7 +76,37 @@ fn spec_of(
         return Err("has more bonding orbitals than valence functions");
     }
     let hybrids = &atom_hybrids.hybrids;
-    if hybrids.iter().any(|h| h.kind == HybridKind::Multicentre) {
+    let position = |a: usize| molecule.atoms[a].position;
+    // A multicentre part that is p perpendicular to every σ bond of the atom is a π
+    // orbital of a delocalized π system (benzene, C60): the two-centre models take it as
+    // a π orbital toward the nearest other atom of its orbital.
+    let bond_axes: Vec<Vector3<f64>> = hybrids
+        .iter()
+        .filter(|h| h.kind == HybridKind::Bond)
+        .filter_map(|h| h.partner)
+        .map(|p| (position(p) - position(atom)).normalize())
+        .collect();
+    let pi_partner = |h: &crate::localized::AtomHybrid| -> Option<usize> {
+        let direction = Vector3::from(h.shape.direction);
+        let perpendicular =
+            h.shape.p_share > 0.95 && bond_axes.iter().all(|axis| direction.dot(axis).abs() < 0.3);
+        let others = h
+            .orbitals
+            .iter()
+            .flat_map(|&k| picture.orbitals[k].centres.iter().copied());
+        let nearest = others.filter(|&a| a != atom).min_by(|&a, &b| {
+            let (da, db) = (
+                (position(a) - position(atom)).norm(),
+                (position(b) - position(atom)).norm(),
+            );
+            da.total_cmp(&db)
+        });
+        perpendicular.then_some(nearest).flatten()
+    };
+    if hybrids
+        .iter()
+        .any(|h| h.kind == HybridKind::Multicentre && pi_partner(h).is_none())
+    {
         return Err("takes part in a multicentre bond");
     }
     let single = hybrids
@@ -86,7 +116,6 @@ fn spec_of(
     if single > 1 {
         return Err("has more than one singly occupied orbital");
     }
-    let position = |a: usize| molecule.atoms[a].position;
     let mut sigma_partners: Vec<usize> = Vec::new();
     let mut pi = Vec::new();
     for hybrid in hybrids {
@@ -98,6 +127,13 @@ fn spec_of(
             // A second bond hybrid toward the same partner (a bent double bond) counts
             // as that bond's π orbital.
             (HybridKind::Bond, Some(partner)) | (HybridKind::Pi, Some(partner)) => {
+                pi.push((
+                    partner,
+                    perpendicular(direction, position(partner) - position(atom)),
+                ));
+            }
+            (HybridKind::Multicentre, _) => {
+                let partner = pi_partner(hybrid).ok_or("takes part in a multicentre bond")?;
                 pi.push((
                     partner,
                     perpendicular(direction, position(partner) - position(atom)),

@@ -243,14 +243,13 @@ pub fn bent_notes(hybrids: &[AtomHybrids], molecule: &Molecule) -> Vec<String> {
             s_of(HybridKind::LonePair),
             s_of(HybridKind::Bond),
             bonds >= 2,
-        ) {
-            if lone + 1.0 < bond {
-                notes.push(format!(
-                    "atom {} ({}): its s-richest lone pair has {lone:.1} % s, less than its bonds ({bond:.1} % s), against Bent's rule; this follows the extended Hückel wavefunction, which puts little s character into this lone pair (the geometric model gives the textbook reading)",
-                    atom_hybrids.atom,
-                    molecule.atoms[atom_hybrids.atom].element.symbol()
-                ));
-            }
+        ) && lone + 1.0 < bond
+        {
+            notes.push(format!(
+                "atom {} ({}): its s-richest lone pair has {lone:.1} % s, less than its bonds ({bond:.1} % s), against Bent's rule; this follows the extended Hückel wavefunction, which puts little s character into this lone pair (the geometric model gives the textbook reading)",
+                atom_hybrids.atom,
+                molecule.atoms[atom_hybrids.atom].element.symbol()
+            ));
         }
     }
     notes

@@ -106,7 +106,8 @@ pub fn build(
     let mut columns: Vec<DVector<f64>> = Vec::new();
     for (unit, (members, lo_members)) in groups.iter().enumerate() {
         let unit_pieces: Vec<&Piece> = members.iter().map(|&p| &pieces[p]).collect();
-        let electrons: f64 = lo_members.iter().map(|&k| orbitals[k].occupancy).sum();
+        let electrons =
+            super::lewis::rounded(lo_members.iter().map(|&k| orbitals[k].occupancy).sum());
         let naming = Naming::of(&unit_pieces, lo_members, orbitals, units, hybrids, molecule);
         let (energies, coefficients) = solve_unit(&unit_pieces, hamiltonian, layout);
         let mut remaining = electrons;

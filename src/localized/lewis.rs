@@ -230,7 +230,7 @@ fn ownership(orbital: &LocalizedOrbital) -> Vec<f64> {
 
 /// Counts of electrons and halves are exact in the Lewis structure; rounding noise
 /// (2.0000000000000027) is cut at 1e-9 so the reports read cleanly.
-fn rounded(value: f64) -> f64 {
+pub(crate) fn rounded(value: f64) -> f64 {
     let clean = (value * 1e9).round() / 1e9;
     if clean == 0.0 { 0.0 } else { clean }
 }

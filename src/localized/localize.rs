@@ -521,9 +521,12 @@ impl Harmonics {
     }
 }
 
-/// (θ, cos θ, sin θ, cos 2θ, sin 2θ) on the fixed grid of [`ANGLE_SAMPLES`] points.
-fn sample_table() -> &'static [(f64, f64, f64, f64, f64)] {
-    static TABLE: std::sync::OnceLock<Vec<(f64, f64, f64, f64, f64)>> = std::sync::OnceLock::new();
+/// One grid point of a pair's function: (θ, cos θ, sin θ, cos 2θ, sin 2θ).
+type Sample = (f64, f64, f64, f64, f64);
+
+/// The samples on the fixed grid of [`ANGLE_SAMPLES`] points.
+fn sample_table() -> &'static [Sample] {
+    static TABLE: std::sync::OnceLock<Vec<Sample>> = std::sync::OnceLock::new();
     TABLE.get_or_init(|| {
         (0..ANGLE_SAMPLES)
             .map(|k| {

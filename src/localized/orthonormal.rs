@@ -42,14 +42,14 @@ impl AtomLayout {
     /// of the given kinds.
     pub fn from_atom_map(atom_of_ao: &[usize], kinds: Vec<AngularKind>) -> Option<AtomLayout> {
         let atoms = atom_of_ao.iter().map(|&a| a + 1).max().unwrap_or(0);
-        let mut ranges = vec![0..0; atoms];
+        let mut ranges = Vec::with_capacity(atoms);
         for atom in 0..atoms {
             let first = atom_of_ao.iter().position(|&a| a == atom)?;
             let last = atom_of_ao.iter().rposition(|&a| a == atom)?;
             if atom_of_ao[first..=last].iter().any(|&a| a != atom) {
                 return None;
             }
-            ranges[atom] = first..last + 1;
+            ranges.push(first..last + 1);
         }
         (kinds.len() == atom_of_ao.len()).then_some(AtomLayout { ranges, kinds })
     }
