@@ -219,12 +219,6 @@ impl Analysis {
             Stage::Symmetry,
             symmetry::detect(molecule, &settings.symmetry),
         );
-        let symmetry_summary = symmetry
-            .as_ref()
-            .map(|found| symmetry::summarize(found, molecule));
-        let symmetrized = symmetry
-            .as_ref()
-            .map(|found| symmetry::symmetrize(molecule, found));
         let mut eht = log.keep(Stage::Orbitals, eht::run(molecule, &settings.eht));
         let picture = eht.as_ref().and_then(|solution| {
             log.keep(
@@ -245,19 +239,13 @@ impl Analysis {
             )),
             _ => None,
         };
-        let hybrid_entries = stages::hybrid_entries(
-            molecule,
-            picture.as_ref(),
-            hybrids.as_ref(),
-            settings.hybrid.model,
-        );
+        let model = settings.hybrid.model;
+        let hybrid_entries =
+            stages::hybrid_entries(molecule, picture.as_ref(), hybrids.as_ref(), model);
         let mut level_shifts = Vec::new();
         if let Some(solution) = eht.as_mut() {
-            match stages::apply_lone_pair_switch(
-                solution,
-                &hybrid_entries,
-                settings.lone_pair_mixing,
-            ) {
+            let mixing = settings.lone_pair_mixing;
+            match stages::apply_lone_pair_switch(solution, &hybrid_entries, mixing) {
                 Ok(shifts) => level_shifts = shifts,
                 Err(message) => log.fail(Stage::Orbitals, message),
             }
@@ -266,22 +254,15 @@ impl Analysis {
         if let (Some(found), Some(solution)) = (&symmetry, &eht) {
             label_summaries(&mut orbitals, found, molecule, solution, settings);
         }
-        let mut localized = Vec::new();
-        let mut links = Vec::new();
-        if let (Some(solution), Some(found)) = (&eht, &picture) {
-            let (ladder, vectors) = stages::ladder(
-                molecule,
-                solution,
-                found,
-                hybrids.as_ref(),
-                settings.hybrid.model,
-            );
-            localized = ladder;
-            match stages::links(solution, &orbitals, &vectors, &mut localized) {
-                Ok(found) => links = found,
-                Err(message) => log.fail(Stage::Links, message),
+        let (localized, links) = match (&eht, &picture) {
+            (Some(solution), Some(found)) => {
+                let chosen = hybrids.as_ref();
+                stages::ladder_and_links(
+                    molecule, solution, found, chosen, model, &orbitals, &mut log,
+                )
             }
-        }
+            _ => (Vec::new(), Vec::new()),
+        };
         if !settings.lone_pair_mixing && !level_shifts.is_empty() {
             log.note(
                 Stage::Links,
@@ -293,9 +274,13 @@ impl Analysis {
             settings: settings.clone(),
             electrons,
             formula: molecule.formula(),
+            symmetry_summary: symmetry
+                .as_ref()
+                .map(|found| symmetry::summarize(found, molecule)),
+            symmetrized: symmetry
+                .as_ref()
+                .map(|found| symmetry::symmetrize(molecule, found)),
             symmetry,
-            symmetry_summary,
-            symmetrized,
             eht,
             orbitals,
             picture,

@@ -234,7 +234,7 @@ pub(super) fn apply_lone_pair_switch(
 
 /// The localized ladder on the hybrids of the chosen model, as summaries (AO
 /// coefficients for maps) and as vectors over the orthonormal basis.
-pub(super) fn ladder(
+fn ladder(
     molecule: &Molecule,
     eht: &EhtResult,
     picture: &LocalizedPicture,
@@ -272,6 +272,29 @@ pub(super) fn ladder(
     (summaries, built.vectors)
 }
 
+/// The ladder on the chosen model's hybrids and its weights in the canonical MOs (a
+/// failure of the weights is logged; the ladder is kept).
+#[allow(clippy::too_many_arguments)]
+pub(super) fn ladder_and_links(
+    molecule: &Molecule,
+    eht: &EhtResult,
+    picture: &LocalizedPicture,
+    hybrids: Option<&HybridAnalysis>,
+    model: HybridModel,
+    orbitals: &[OrbitalSummary],
+    log: &mut Log,
+) -> (Vec<LocalizedSummary>, Vec<LinkSummary>) {
+    let (mut localized, vectors) = ladder(molecule, eht, picture, hybrids, model);
+    let links = match links(eht, orbitals, &vectors, &mut localized) {
+        Ok(found) => found,
+        Err(message) => {
+            log.fail(Stage::Links, message);
+            Vec::new()
+        }
+    };
+    (localized, links)
+}
+
 /// Degenerate-set ids of the canonical orbitals: same label (same irrep level) or, with
 /// no labels, energies within 1e-3 eV.
 fn set_ids(orbitals: &[OrbitalSummary]) -> Vec<usize> {
@@ -295,7 +318,7 @@ fn set_ids(orbitals: &[OrbitalSummary]) -> Vec<usize> {
 
 /// Weights of every canonical set in every ladder level (vectors over the orthonormal
 /// basis); fills each level's true occupancy and captured share.
-pub(super) fn links(
+fn links(
     eht: &EhtResult,
     orbitals: &[OrbitalSummary],
     vectors: &DMatrix<f64>,

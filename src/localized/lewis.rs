@@ -114,99 +114,137 @@ pub fn read(
     wiberg: &DMatrix<f64>,
     valence: &[f64],
 ) -> LewisStructure {
-    let atoms = valence.len();
-    let occupied = || orbitals.iter().filter(|o| o.space != OrbitalSpace::Virtual);
-    let mut order = DMatrix::<f64>::zeros(atoms, atoms);
-    let mut owned = vec![0.0; atoms];
-    let mut lone = vec![0usize; atoms];
-    let mut structure = LewisStructure::default();
-    let mut lewis_electrons = 0.0;
-    let mut total = 0.0;
-    for orbital in occupied() {
-        total += orbital.occupancy;
+    let mut tally = Tally::new(valence.len());
+    for orbital in orbitals.iter().filter(|o| o.space != OrbitalSpace::Virtual) {
+        tally.add_orbital(orbital);
+    }
+    for unit in units {
+        tally.add_unit(unit, orbitals);
+    }
+    tally.finish(wiberg, valence)
+}
+
+/// What the orbitals add up to, atom by atom and pair by pair.
+struct Tally {
+    order: DMatrix<f64>,
+    owned: Vec<f64>,
+    lone: Vec<usize>,
+    structure: LewisStructure,
+    lewis_electrons: f64,
+    total: f64,
+}
+
+impl Tally {
+    fn new(atoms: usize) -> Tally {
+        Tally {
+            order: DMatrix::zeros(atoms, atoms),
+            owned: vec![0.0; atoms],
+            lone: vec![0; atoms],
+            structure: LewisStructure::default(),
+            lewis_electrons: 0.0,
+            total: 0.0,
+        }
+    }
+
+    /// An occupied orbital outside 3c–4e units: its electrons, lone pair or bond order.
+    fn add_orbital(&mut self, orbital: &LocalizedOrbital) {
+        self.total += orbital.occupancy;
         if orbital.unit.is_some() {
-            continue;
+            return;
         }
         for (&atom, share) in orbital.centres.iter().zip(ownership(orbital)) {
-            owned[atom] += share;
+            self.owned[atom] += share;
         }
         if orbital.space == OrbitalSpace::Partly {
-            structure.unpaired.push(Unpaired {
+            self.structure.unpaired.push(Unpaired {
                 atoms: sorted(&orbital.centres),
                 electrons: orbital.occupancy,
             });
         }
         match orbital.class {
             OrbitalClass::OneCentre => {
-                lewis_electrons += orbital.occupancy;
+                self.lewis_electrons += orbital.occupancy;
                 if orbital.space == OrbitalSpace::Doubly {
-                    lone[orbital.centres[0]] += 1;
+                    self.lone[orbital.centres[0]] += 1;
                 }
             }
             OrbitalClass::TwoCentre => {
-                lewis_electrons += orbital.occupancy;
+                self.lewis_electrons += orbital.occupancy;
                 let sign = if orbital.antibonding { -1.0 } else { 1.0 };
-                let (a, b) = (orbital.centres[0], orbital.centres[1]);
-                order[(a, b)] += sign * orbital.occupancy / 2.0;
-                order[(b, a)] = order[(a, b)];
+                self.add_order(
+                    orbital.centres[0],
+                    orbital.centres[1],
+                    sign * orbital.occupancy / 2.0,
+                );
             }
-            OrbitalClass::MultiCentre => {
-                if orbital.space == OrbitalSpace::Doubly {
-                    structure.multicentre.push(MulticentreBond {
-                        atoms: sorted(&orbital.centres),
-                        electrons: orbital.occupancy,
-                        kind: MulticentreKind::Delocalized,
-                    });
-                }
+            OrbitalClass::MultiCentre if orbital.space == OrbitalSpace::Doubly => {
+                self.structure.multicentre.push(MulticentreBond {
+                    atoms: sorted(&orbital.centres),
+                    electrons: orbital.occupancy,
+                    kind: MulticentreKind::Delocalized,
+                });
             }
+            OrbitalClass::MultiCentre => {}
         }
     }
-    for unit in units {
+
+    /// A 3c–4e unit: ½ per link; the centre owns a quarter of its electrons, each
+    /// terminal three eighths.
+    fn add_unit(&mut self, unit: &ThreeCentreUnit, orbitals: &[LocalizedOrbital]) {
         let [first, centre, second] = unit.atoms;
         let electrons: f64 = unit.orbitals.iter().map(|&k| orbitals[k].occupancy).sum();
-        owned[centre] += electrons / 4.0;
-        owned[first] += 3.0 * electrons / 8.0;
-        owned[second] += 3.0 * electrons / 8.0;
-        for terminal in [first, second] {
-            order[(terminal, centre)] += 0.5;
-            order[(centre, terminal)] = order[(terminal, centre)];
-        }
-        structure.multicentre.push(MulticentreBond {
+        self.owned[centre] += electrons / 4.0;
+        self.owned[first] += 3.0 * electrons / 8.0;
+        self.owned[second] += 3.0 * electrons / 8.0;
+        self.add_order(first, centre, 0.5);
+        self.add_order(second, centre, 0.5);
+        self.structure.multicentre.push(MulticentreBond {
             atoms: unit.atoms.to_vec(),
             electrons,
             kind: MulticentreKind::ThreeCentreFourElectron,
         });
     }
-    for a in 0..atoms {
-        for b in a + 1..atoms {
-            let index = wiberg.get((a, b)).copied().unwrap_or(0.0);
-            if order[(a, b)].abs() > 1e-9 || index >= LISTED_WIBERG_INDEX {
-                structure.bonds.push(LewisBond {
-                    atoms: [a, b],
-                    order: rounded(order[(a, b)]),
-                    index,
-                });
+
+    fn add_order(&mut self, a: usize, b: usize, order: f64) {
+        self.order[(a, b)] += order;
+        self.order[(b, a)] = self.order[(a, b)];
+    }
+
+    fn finish(mut self, wiberg: &DMatrix<f64>, valence: &[f64]) -> LewisStructure {
+        let atoms = valence.len();
+        for a in 0..atoms {
+            for b in a + 1..atoms {
+                let index = wiberg.get((a, b)).copied().unwrap_or(0.0);
+                if self.order[(a, b)].abs() > 1e-9 || index >= LISTED_WIBERG_INDEX {
+                    self.structure.bonds.push(LewisBond {
+                        atoms: [a, b],
+                        order: rounded(self.order[(a, b)]),
+                        index,
+                    });
+                }
             }
         }
+        let lone = &self.lone;
+        self.structure.lone_pairs = (0..atoms)
+            .filter(|&a| lone[a] > 0)
+            .map(|atom| LonePairs {
+                atom,
+                count: lone[atom],
+            })
+            .collect();
+        self.structure.formal_charges = valence
+            .iter()
+            .zip(&self.owned)
+            .map(|(v, e)| rounded(v - e))
+            .collect();
+        let share = if self.total > 0.0 {
+            self.lewis_electrons / self.total
+        } else {
+            1.0
+        };
+        self.structure.lewis_share = rounded(share);
+        self.structure
     }
-    structure.lone_pairs = (0..atoms)
-        .filter(|&a| lone[a] > 0)
-        .map(|atom| LonePairs {
-            atom,
-            count: lone[atom],
-        })
-        .collect();
-    structure.formal_charges = valence
-        .iter()
-        .zip(&owned)
-        .map(|(v, e)| rounded(v - e))
-        .collect();
-    structure.lewis_share = rounded(if total > 0.0 {
-        lewis_electrons / total
-    } else {
-        1.0
-    });
-    structure
 }
 
 /// The electrons each centre owns: all of a one-centre orbital's, half of a two-centre

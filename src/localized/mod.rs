@@ -22,6 +22,7 @@ pub mod hybrids;
 pub mod ladder;
 pub mod lewis;
 pub mod localize;
+mod notes;
 pub mod orthonormal;
 pub mod switch;
 pub mod weights;
@@ -42,9 +43,7 @@ use crate::eht::EhtResult;
 
 /// Occupations within this of 0 or 2 count as empty or full.
 const OCCUPATION_TOLERANCE: f64 = 1e-9;
-/// Below this Lewis share a note says one Lewis structure describes the molecule poorly
-/// (our choice, no source).
-pub const LOW_LEWIS_SHARE: f64 = 0.9;
+pub use notes::LOW_LEWIS_SHARE;
 
 /// Settings of the localization.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
@@ -204,54 +203,7 @@ pub fn read_localized(
     blocks: Vec<LocalizedBlock>,
 ) -> LocalizedPicture {
     let layout = wavefunction.layout;
-    let mut orbitals = Vec::new();
-    let mut columns = Vec::new();
-    let mut spaces = Vec::new();
-    for block in blocks {
-        let space = block.report.space;
-        let occupancies = true_occupancies(
-            &block.orbitals,
-            wavefunction.coefficients,
-            wavefunction.occupations,
-        );
-        let applied = wavefunction.hamiltonian * &block.orbitals;
-        let energies: Vec<f64> = block
-            .orbitals
-            .column_iter()
-            .zip(applied.column_iter())
-            .map(|(b, hb)| b.dot(&hb))
-            .collect();
-        let mut classified: Vec<(LocalizedOrbital, nalgebra::DVector<f64>)> = block
-            .orbitals
-            .column_iter()
-            .zip(occupancies)
-            .zip(energies)
-            .map(|((column, occupancy), energy)| {
-                let vector = signed(column.into_owned());
-                let orbital = classify::classify_orbital(
-                    vector.as_view(),
-                    space,
-                    occupancy,
-                    energy,
-                    layout,
-                    wavefunction.hamiltonian,
-                    molecule,
-                );
-                (orbital, vector)
-            })
-            .collect();
-        classified.sort_by(|a, b| a.0.energy_ev.total_cmp(&b.0.energy_ev));
-        for (orbital, vector) in classified {
-            orbitals.push(orbital);
-            columns.push(vector);
-        }
-        spaces.push(block.report);
-    }
-    let mut vectors = if columns.is_empty() {
-        DMatrix::zeros(layout.functions(), 0)
-    } else {
-        DMatrix::from_columns(&columns)
-    };
+    let (mut orbitals, mut vectors, spaces) = classify_blocks(molecule, wavefunction, blocks);
     for k in classify::align_shared_centres(&orbitals, &mut vectors, layout) {
         let (space, occupancy) = (orbitals[k].space, orbitals[k].occupancy);
         let energy = vectors
@@ -278,7 +230,7 @@ pub fn read_localized(
     let lewis = lewis::read(&orbitals, &units, &wiberg, &valence);
     let (hybrids, hybrid_notes) =
         hybrids::read_hybrids(&orbitals, &vectors, &units, layout, molecule);
-    let mut notes = picture_notes(&orbitals, &units, &lewis, &spaces, molecule);
+    let mut notes = notes::picture_notes(&orbitals, &units, &lewis, &spaces, molecule);
     notes.extend(hybrid_notes);
     notes.extend(hybrids::bent_notes(&hybrids, molecule));
     LocalizedPicture {
@@ -292,6 +244,57 @@ pub fn read_localized(
         notes,
         layout: layout.clone(),
     }
+}
+
+/// Each block's orbitals classified with their true occupancies and energies, signed and
+/// sorted by energy within the block; the vectors in the same order.
+fn classify_blocks(
+    molecule: &Molecule,
+    wavefunction: Wavefunction<'_>,
+    blocks: Vec<LocalizedBlock>,
+) -> (Vec<LocalizedOrbital>, DMatrix<f64>, Vec<SpaceReport>) {
+    let mut orbitals = Vec::new();
+    let mut columns = Vec::new();
+    let mut spaces = Vec::new();
+    for block in blocks {
+        let occupancies = true_occupancies(
+            &block.orbitals,
+            wavefunction.coefficients,
+            wavefunction.occupations,
+        );
+        let applied = wavefunction.hamiltonian * &block.orbitals;
+        let mut classified: Vec<(LocalizedOrbital, nalgebra::DVector<f64>)> = block
+            .orbitals
+            .column_iter()
+            .zip(applied.column_iter())
+            .zip(occupancies)
+            .map(|((column, hb), occupancy)| {
+                let vector = signed(column.into_owned());
+                let orbital = classify::classify_orbital(
+                    vector.as_view(),
+                    block.report.space,
+                    occupancy,
+                    column.dot(&hb),
+                    wavefunction.layout,
+                    wavefunction.hamiltonian,
+                    molecule,
+                );
+                (orbital, vector)
+            })
+            .collect();
+        classified.sort_by(|a, b| a.0.energy_ev.total_cmp(&b.0.energy_ev));
+        for (orbital, vector) in classified {
+            orbitals.push(orbital);
+            columns.push(vector);
+        }
+        spaces.push(block.report);
+    }
+    let vectors = if columns.is_empty() {
+        DMatrix::zeros(wavefunction.layout.functions(), 0)
+    } else {
+        DMatrix::from_columns(&columns)
+    };
+    (orbitals, vectors, spaces)
 }
 
 /// Indices of the canonical MOs of one space.
@@ -328,89 +331,4 @@ fn signed(v: nalgebra::DVector<f64>) -> nalgebra::DVector<f64> {
     } else {
         -v
     }
-}
-
-/// Notes on what the Lewis picture cannot say plainly.
-fn picture_notes(
-    orbitals: &[LocalizedOrbital],
-    units: &[ThreeCentreUnit],
-    lewis: &LewisStructure,
-    spaces: &[SpaceReport],
-    molecule: &Molecule,
-) -> Vec<String> {
-    let symbol = |a: usize| molecule.atoms[a].element.symbol();
-    let written = |atoms: &[usize]| {
-        ladder::chain_order(atoms, molecule)
-            .iter()
-            .map(|&a| format!("{}{a}", symbol(a)))
-            .collect::<Vec<_>>()
-            .join("–")
-    };
-    let mut notes = Vec::new();
-    for space in spaces.iter().filter(|s| !s.converged) {
-        notes.push(format!(
-            "the localization of the {:?} orbitals stopped after {} sweeps without converging; the orbitals shown are the last ones",
-            space.space, space.sweeps
-        ).to_lowercase());
-    }
-    let unpaired = lewis.unpaired_electrons();
-    if unpaired > 1e-9 {
-        let partly = orbitals
-            .iter()
-            .filter(|o| o.space == OrbitalSpace::Partly)
-            .count();
-        notes.push(format!(
-            "open shell: {unpaired:.2} electrons sit in {partly} partly occupied orbitals (shown with their own occupancies); a closed-shell Lewis structure would contradict the canonical MOs"
-        ));
-    }
-    let mut unit_notes: Vec<(String, usize)> = Vec::new();
-    for unit in units {
-        let text = format!(
-            "{} {}",
-            if unit.character == BondCharacter::Pi {
-                "π"
-            } else {
-                "σ"
-            },
-            written(&unit.atoms)
-        );
-        match unit_notes.iter_mut().find(|(t, _)| *t == text) {
-            Some((_, count)) => *count += 1,
-            None => unit_notes.push((text, 1)),
-        }
-    }
-    for (text, count) in unit_notes {
-        let what = if count == 1 {
-            "a three-centre four-electron bond".to_string()
-        } else {
-            format!("{count} three-centre four-electron bonds")
-        };
-        notes.push(format!(
-            "{what} ({text}; bond order ½ per link): one Lewis structure cannot show it"
-        ));
-    }
-    let delocalized: Vec<String> = lewis
-        .multicentre
-        .iter()
-        .filter(|m| m.kind == MulticentreKind::Delocalized)
-        .map(|bond| format!("{} ({:.2} e)", written(&bond.atoms), bond.electrons))
-        .collect();
-    if !delocalized.is_empty() {
-        let what = if delocalized.len() == 1 {
-            "a multicentre bond".to_string()
-        } else {
-            format!("{} multicentre bonds", delocalized.len())
-        };
-        notes.push(format!(
-            "{what} over {}: the two-centre picture does not fit here, the ladder shows the multicentre orbitals",
-            delocalized.join(", ")
-        ));
-    }
-    if lewis.lewis_share < LOW_LEWIS_SHARE {
-        notes.push(format!(
-            "Lewis share {:.0} %: one Lewis structure describes this molecule only in part",
-            100.0 * lewis.lewis_share
-        ));
-    }
-    notes
 }
