@@ -100,3 +100,135 @@ fn screenshots_of_demo_molecules_are_not_blank() {
         );
     }
 }
+
+/// Fill colours from src/app/theme.rs and bar colours from src/diagram/style.rs.
+const BORON: [u8; 3] = [196, 156, 128];
+const HYDROGEN: [u8; 3] = [226, 222, 212];
+const SULFUR: [u8; 3] = [206, 172, 76];
+const FLUORINE: [u8; 3] = [132, 170, 116];
+const OXYGEN: [u8; 3] = [186, 84, 72];
+const CARBON: [u8; 3] = [92, 96, 104];
+const SIGMA_BAR: [u8; 3] = [46, 110, 140];
+const PI_BAR: [u8; 3] = [60, 130, 80];
+const LONE_PAIR_BAR: [u8; 3] = [170, 80, 60];
+/// egui's error text colour in the light theme: any stage error would be written in it.
+const ERROR_RED: [u8; 3] = [255, 0, 0];
+
+/// A decoded screenshot with the panels' columns (default panel widths of a 1400 px
+/// window: Structure on the left quarter, the Diagram in the middle half).
+struct Shot {
+    width: usize,
+    pixels: Vec<[u8; 4]>,
+}
+
+impl Shot {
+    fn take(molecule: &str, folder: &Path) -> Option<Shot> {
+        let out = folder.join(molecule.replace(".xyz", ".png"));
+        screenshot(molecule, &out)?;
+        let (width, height, pixels) = decode(&out);
+        assert!(
+            width >= 800 && height >= 600,
+            "{molecule}: {width}×{height}"
+        );
+        Some(Shot {
+            width: width as usize,
+            pixels,
+        })
+    }
+
+    /// Pixels of exactly `rgb` whose column lies in the fraction `from..to` of the width.
+    fn count(&self, rgb: [u8; 3], from: f64, to: f64) -> usize {
+        let (low, high) = (
+            (from * self.width as f64) as usize,
+            (to * self.width as f64) as usize,
+        );
+        self.pixels
+            .iter()
+            .enumerate()
+            .filter(|(i, p)| (low..high).contains(&(i % self.width)) && p[..3] == rgb)
+            .count()
+    }
+
+    fn in_structure(&self, rgb: [u8; 3]) -> usize {
+        self.count(rgb, 0.0, 0.26)
+    }
+
+    fn in_diagram(&self, rgb: [u8; 3]) -> usize {
+        self.count(rgb, 0.28, 0.76)
+    }
+
+    /// Nothing in the window is written in the error colour.
+    fn assert_no_error_text(&self, molecule: &str) {
+        let red = self.count(ERROR_RED, 0.0, 1.0);
+        assert!(red < 5, "{molecule}: {red} pixels of error text");
+    }
+}
+
+#[test]
+fn diborane_screenshot_shows_borons_hydrogens_and_its_ladders() {
+    let folder = tempfile::tempdir().unwrap();
+    let Some(shot) = Shot::take("diborane.xyz", folder.path()) else {
+        return;
+    };
+    // Two boron and six hydrogen balls (about 2600 px each colour at the default size).
+    assert!(
+        shot.in_structure(BORON) > 1000,
+        "{}",
+        shot.in_structure(BORON)
+    );
+    assert!(shot.in_structure(HYDROGEN) > 1000);
+    // σ(B–H) and the ag levels are drawn in the σ colour, above the notes strip.
+    assert!(
+        shot.in_diagram(SIGMA_BAR) > 120,
+        "{}",
+        shot.in_diagram(SIGMA_BAR)
+    );
+    shot.assert_no_error_text("diborane");
+}
+
+#[test]
+fn sulfur_hexafluoride_screenshot_shows_six_fluorines_and_lone_pair_levels() {
+    let folder = tempfile::tempdir().unwrap();
+    let Some(shot) = Shot::take("sulfur_hexafluoride.xyz", folder.path()) else {
+        return;
+    };
+    let (sulfur, fluorine) = (shot.in_structure(SULFUR), shot.in_structure(FLUORINE));
+    assert!(sulfur > 1000, "{sulfur}");
+    // Six fluorine balls and their halves of the sticks cover more than one sulfur.
+    assert!(fluorine > sulfur, "fluorine {fluorine}, sulfur {sulfur}");
+    // Eighteen n(F) levels.
+    assert!(shot.in_diagram(LONE_PAIR_BAR) > 100);
+    shot.assert_no_error_text("sulfur_hexafluoride");
+}
+
+#[test]
+fn dioxygen_screenshot_shows_its_pi_levels() {
+    let folder = tempfile::tempdir().unwrap();
+    let Some(shot) = Shot::take("dioxygen.xyz", folder.path()) else {
+        return;
+    };
+    assert!(shot.in_structure(OXYGEN) > 2000);
+    // 1πu, 1πg on the left; π and π* on the right.
+    assert!(shot.in_diagram(PI_BAR) > 150, "{}", shot.in_diagram(PI_BAR));
+    assert!(shot.in_diagram(LONE_PAIR_BAR) > 40);
+    shot.assert_no_error_text("dioxygen");
+}
+
+#[test]
+fn carbon_monoxide_screenshot_shows_both_atoms_and_sigma_pi_and_lone_pair_levels() {
+    let folder = tempfile::tempdir().unwrap();
+    let Some(shot) = Shot::take("carbon_monoxide.xyz", folder.path()) else {
+        return;
+    };
+    assert!(shot.in_structure(CARBON) > 1500);
+    assert!(shot.in_structure(OXYGEN) > 1500);
+    for (name, rgb, least) in [
+        ("σ", SIGMA_BAR, 100),
+        ("π", PI_BAR, 150),
+        ("n", LONE_PAIR_BAR, 40),
+    ] {
+        let found = shot.in_diagram(rgb);
+        assert!(found > least, "{name} bars: {found} pixels");
+    }
+    shot.assert_no_error_text("carbon_monoxide");
+}

@@ -1,6 +1,7 @@
 //! The Diagram panel: paints the library's `Diagram` layout (the same model the SVG
 //! writer uses) into the panel, uniformly scaled; hover highlights a level and its
-//! correlation lines, a click selects it for the Inspector.
+//! correlation lines, a click selects it for the Inspector. Each level is also a node of
+//! the accessibility tree, named by its label.
 
 use diptych::diagram::layout::{Diagram, Level};
 use diptych::diagram::style::format_energy;
@@ -158,6 +159,7 @@ pub fn show(
                 ink,
                 faint,
             );
+            describe_level(ui, &map, level, ladder_index);
         }
     }
 
@@ -255,6 +257,35 @@ fn draw_level(
         painter.rect_filled(rect.expand(1.0), 2.0, background);
         painter.galley(rect.min, tag, faint);
     }
+}
+
+/// Gives a level a node in the accessibility tree (screen readers; the GUI tests find
+/// levels this way): its label as the name; ladder, energy and electrons as description.
+fn describe_level(ui: &egui::Ui, map: &Mapping, level: &Level, ladder: usize) {
+    use egui::accesskit;
+    let left = map.point(level.x_left, level.y);
+    let right = map.point(level.x_right, level.y);
+    let side = if ladder == 0 {
+        "delocalized"
+    } else {
+        "localized"
+    };
+    ui.ctx()
+        .accesskit_node_builder(ui.scope_id().with(("level", ladder, level.key)), |node| {
+            node.set_role(accesskit::Role::ListItem);
+            node.set_label(level.label.clone());
+            node.set_description(format!(
+                "{side} level, {} eV, {:.2} electrons",
+                format_energy(level.energy_ev, 2),
+                level.occupancy
+            ));
+            node.set_bounds(accesskit::Rect {
+                x0: f64::from(left.x),
+                y0: f64::from(left.y - 4.0),
+                x1: f64::from(right.x),
+                y1: f64::from(right.y + 4.0),
+            });
+        });
 }
 
 /// The label as rich text: Mulliken subscripts and superscripts set small and shifted

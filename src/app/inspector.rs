@@ -1,14 +1,17 @@
-//! The Inspector panel: the molecule's summary, then the selected orbital (energy, label,
-//! occupancy, composition by atom and AO, its orbital map) or, failing that, the selected
-//! atom.
+//! The Inspector panel: the molecule's summary and its Lewis structure, then the selected
+//! orbital (energy, label, kind, occupancies, composition by atom and AO, hybrids, its
+//! orbital map) and the selected atom.
 
-use diptych::analysis::Analysis;
+use diptych::analysis::{Analysis, HybridEntry, LocalizedSummary};
 use diptych::diagram::build::LOCALIZED_KEY_OFFSET;
+use diptych::hybrid::HybridKind;
+use diptych::localized::LocalizedKind;
 use eframe::egui;
 
 use diptych::diagram::style::{format_energy, lambda_text};
 
 use super::diagram_view::LevelRef;
+use super::lewis_section;
 use super::menus::Dialogs;
 use super::molecule_panel;
 use super::orbital_map_view;
@@ -18,6 +21,10 @@ use diptych::orbital_map::OrbitalRef;
 pub fn show(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
     molecule_panel::summary(ui, state);
     ui.separator();
+    if let Some(analysis) = state.analysis.clone() {
+        lewis_section::show(ui, &analysis, state.selected_atom);
+        ui.separator();
+    }
     if let (Some(level), Some(analysis)) = (state.selected_level, state.analysis.clone()) {
         let orbital = if level.ladder == 0 {
             canonical_orbital(ui, &analysis, level);
@@ -114,14 +121,21 @@ fn localized_orbital(
         .key
         .checked_sub(LOCALIZED_KEY_OFFSET)
         .and_then(|n| analysis.localized.get(n))?;
-    let mut choice = None;
     let index = level.key - LOCALIZED_KEY_OFFSET;
     let atom_name = |atom: usize| format!("{}{atom}", analysis.molecule.atoms[atom].element);
-    let atoms: Vec<String> = orbital.atoms.iter().map(|&a| atom_name(a)).collect();
+    // Three centres in chain order (B0–H2–B1), as the notes name them.
+    let atoms: Vec<String> =
+        diptych::localized::ladder::chain_order(&orbital.atoms, &analysis.molecule)
+            .into_iter()
+            .map(atom_name)
+            .collect();
     ui.heading(format!("Localized {}", orbital.label));
     egui::Grid::new("localized facts")
         .num_columns(2)
         .show(ui, |ui| {
+            ui.label("Kind");
+            ui.label(lewis_section::kind_in_words(orbital.kind));
+            ui.end_row();
             ui.label("Atoms");
             ui.label(atoms.join("–"));
             ui.end_row();
@@ -129,7 +143,12 @@ fn localized_orbital(
             ui.label(format!("{} eV", format_energy(orbital.energy_ev, 3)));
             ui.end_row();
             ui.label("Occupancy");
-            ui.label(format!("{:.2}", orbital.occupancy));
+            ui.label(format!("{:.3} (in the canonical MOs)", orbital.occupancy))
+                .on_hover_text("Electrons of this orbital in the extended Hückel density");
+            ui.end_row();
+            ui.label("Lewis occupancy");
+            ui.label(format!("{:.2}", orbital.lewis_occupancy))
+                .on_hover_text("Electrons the Lewis structure puts here (drawn in the ladder)");
             ui.end_row();
             ui.label("In occupied MOs");
             ui.label(format!("{:.1} %", 100.0 * orbital.captured));
@@ -159,23 +178,30 @@ fn localized_orbital(
             }
         });
     ui.add_space(4.0);
+    hybrids_grid(ui, analysis, orbital, shown_hybrid)
+}
+
+/// The level's hybrids with a button each to map it; returns the user's choice as
+/// `localized_orbital` does. Hybrids that are only part of an orbital (an over-complete
+/// atom) are said under the grid, so that the rows stay narrow.
+fn hybrids_grid(
+    ui: &mut egui::Ui,
+    analysis: &Analysis,
+    orbital: &LocalizedSummary,
+    shown_hybrid: Option<usize>,
+) -> Option<Option<usize>> {
+    let atom_name = |atom: usize| format!("{}{atom}", analysis.molecule.atoms[atom].element);
+    let hybrids = level_hybrids(analysis, orbital);
+    let mut choice = None;
     ui.strong("Hybrids");
     egui::Grid::new("hybrids of orbital")
         .num_columns(5)
         .striped(true)
         .show(ui, |ui| {
-            let members = analysis.hybrid_entries.iter().enumerate().filter(|(_, h)| {
-                orbital.atoms.contains(&h.center)
-                    && match orbital.atoms.as_slice() {
-                        [_] => h.partner.is_none(),
-                        [a, b] => h.partner == Some(if h.center == *a { *b } else { *a }),
-                        _ => false,
-                    }
-            });
-            for (index, entry) in members {
+            for &(index, entry) in &hybrids {
                 ui.label(atom_name(entry.center));
                 ui.label(lambda_text(entry.lambda));
-                ui.label(format!("{:.0} % s", entry.s_percent));
+                ui.label(composition_text(entry));
                 ui.label(
                     entry
                         .bending_degrees
@@ -192,5 +218,69 @@ fn localized_orbital(
                 ui.end_row();
             }
         });
+    let mut partial: Vec<(usize, String)> = hybrids
+        .iter()
+        .filter(|(_, entry)| entry.share < 0.995)
+        .map(|(_, entry)| (entry.center, format!("{:.2}", entry.share)))
+        .collect();
+    partial.dedup();
+    for (centre, share) in partial {
+        ui.add(
+            egui::Label::new(format!(
+                "{}: each hybrid here is a share {share} of an orbital (the atom has fewer valence functions than orbitals using it).",
+                atom_name(centre)
+            ))
+            .wrap(),
+        );
+    }
     choice
+}
+
+/// The hybrids of a level, with their indices in `hybrid_entries`: on its atoms, of the
+/// matching kind, and for a two-centre level toward the other atom. A multicentre level
+/// takes its atoms' multicentre and π hybrids, or failing those (the bonds of an
+/// over-complete centre such as SF6's sulfur) the bond hybrids among its atoms.
+fn level_hybrids<'a>(
+    analysis: &'a Analysis,
+    level: &LocalizedSummary,
+) -> Vec<(usize, &'a HybridEntry)> {
+    let of_kinds = |kinds: &[HybridKind]| -> Vec<(usize, &'a HybridEntry)> {
+        analysis
+            .hybrid_entries
+            .iter()
+            .enumerate()
+            .filter(|(_, h)| level.atoms.contains(&h.center) && kinds.contains(&h.kind))
+            .filter(|(_, h)| match level.atoms.as_slice() {
+                [_] => h.partner.is_none(),
+                [a, b] => h.partner == Some(if h.center == *a { *b } else { *a }),
+                atoms => h.partner.is_none_or(|partner| atoms.contains(&partner)),
+            })
+            .collect()
+    };
+    match level.kind {
+        LocalizedKind::Bond | LocalizedKind::Antibond => of_kinds(&[HybridKind::Bond]),
+        LocalizedKind::Pi | LocalizedKind::PiStar => of_kinds(&[HybridKind::Pi]),
+        LocalizedKind::LonePair => of_kinds(&[HybridKind::LonePair]),
+        LocalizedKind::SingleElectron => of_kinds(&[HybridKind::SingleElectron]),
+        LocalizedKind::Vacant => of_kinds(&[HybridKind::Vacant]),
+        LocalizedKind::Multicentre
+        | LocalizedKind::MulticentreNonbonding
+        | LocalizedKind::MulticentreAntibond => {
+            let found = of_kinds(&[HybridKind::Multicentre, HybridKind::Pi]);
+            if found.is_empty() {
+                of_kinds(&[HybridKind::Bond])
+            } else {
+                found
+            }
+        }
+    }
+}
+
+/// "25 % s", with %d when there is any.
+fn composition_text(entry: &HybridEntry) -> String {
+    let mut text = format!("{:.0} % s", entry.s_percent);
+    if entry.d_percent >= 0.5 {
+        text.push_str(&format!(", {:.0} % d", entry.d_percent));
+    }
+    text
 }

@@ -1,12 +1,15 @@
 //! The eframe desktop shell (DESIGN §2): menu bar, Structure panel, Diagram panel,
 //! Inspector, status bar. It renders results of `Analysis::run` and computes no chemistry.
 
+mod analysis_notes;
+mod bond_sticks;
 mod builder;
 mod diagram_view;
 mod export_window;
 mod frame_timer;
 mod history;
 mod inspector;
+mod lewis_section;
 mod menus;
 mod molecule_panel;
 mod orbital_map_view;
@@ -107,6 +110,18 @@ impl DiptychApp {
                     );
                 } else {
                     ui.label(&self.state.status);
+                    let summary = self
+                        .state
+                        .analysis
+                        .as_deref()
+                        .filter(|_| !self.state.is_computing())
+                        .and_then(analysis_notes::status_summary);
+                    if let Some(summary) = summary {
+                        if !self.state.status.is_empty() {
+                            ui.separator();
+                        }
+                        ui.label(summary);
+                    }
                 }
             });
         });
@@ -167,9 +182,14 @@ impl DiptychApp {
             builder::delete_selected(&mut self.state);
         }
         let highlight = self.state.atom_weights_of_focused_level();
+        let bonds = bond_sticks::BondDrawing::for_view(
+            &self.state.project.molecule,
+            self.state.analysis.as_deref(),
+        );
         let events = structure_view::show(
             ui,
             &self.state.project.molecule,
+            &bonds,
             &mut self.state.camera,
             self.state.selected_atom,
             &highlight,
@@ -249,6 +269,11 @@ impl DiptychApp {
                 self.state.rebuild_diagram();
             }
         });
+        analysis_notes::strip(
+            ui,
+            self.state.analysis.as_deref(),
+            self.state.analysis_error.as_deref(),
+        );
         let show_energies = self.state.project.view.show_energies;
         let now = ui.input(|input| input.time);
         if self

@@ -25,12 +25,8 @@ pub fn summary(ui: &mut egui::Ui, state: &mut AppState) {
                 ui.label("Valence electrons");
                 ui.label(analysis.electrons.to_string());
                 ui.end_row();
-                ui.label("Atoms / bonds");
-                ui.label(format!(
-                    "{} / {}",
-                    analysis.molecule.len(),
-                    analysis.molecule.bonds.len()
-                ));
+                ui.label("Atoms");
+                ui.label(analysis.molecule.len().to_string());
                 ui.end_row();
             });
         }
@@ -71,20 +67,18 @@ fn atom_details(ui: &mut egui::Ui, molecule: &mut Molecule, index: usize) {
         ui.label("No bonded neighbours.");
         return;
     }
-    ui.label("Bonds (Å; the smaller fragment moves)");
+    // The neighbours are the distance-based ones the builder edits; the bonds and orders
+    // read from the wavefunction are in the Lewis structure section.
+    ui.label("Distances to neighbours (Å; the smaller fragment moves)");
     let mut message = None;
     egui::Grid::new("bond lengths")
         .num_columns(2)
         .show(ui, |ui| {
             for &other in &neighbours {
-                let order = molecule.bond(index, other).map_or(1, |bond| bond.order);
                 let Ok(mut distance) = molecule.distance(index, other) else {
                     continue;
                 };
-                let name = format!(
-                    "{element}{index}–{}{other} (order {order})",
-                    molecule.atoms[other].element
-                );
+                let name = format!("{element}{index}–{}{other}", molecule.atoms[other].element);
                 let label = ui.label(&name);
                 let response = ui
                     .add(

@@ -7,6 +7,7 @@ use diptych::chem::Molecule;
 use eframe::egui::{self, Align2, Color32, FontId, Pos2, Rect, Sense, Stroke, Vec2};
 use nalgebra::{Rotation3, Vector3};
 
+use super::bond_sticks::{BondDrawing, StickStyle, paint_star, paint_stick};
 use super::theme::{ACCENT, element_colour, mix};
 
 /// Orientation and zoom of the view.
@@ -78,12 +79,14 @@ struct Projected {
 enum Item {
     Atom(usize),
     Bond(usize),
+    Star(usize),
 }
 
 /// Draws the molecule into the available space and handles the mouse.
 pub fn show(
     ui: &mut egui::Ui,
     molecule: &Molecule,
+    bonds: &BondDrawing,
     camera: &mut Camera,
     selected: Option<usize>,
     halo_weights: &[(usize, f64)],
@@ -141,10 +144,18 @@ pub fn show(
     for (index, p) in projected.iter().enumerate() {
         items.push((p.depth, Item::Atom(index)));
     }
-    for (index, bond) in molecule.bonds.iter().enumerate() {
+    for (index, stick) in bonds.sticks.iter().enumerate() {
         // A bond is drawn just behind the nearer of its two atoms.
-        let depth = projected[bond.a].depth.min(projected[bond.b].depth) - 1e-3;
+        let depth = projected[stick.a].depth.min(projected[stick.b].depth) - 1e-3;
         items.push((depth, Item::Bond(index)));
+    }
+    for (index, atoms) in bonds.stars.iter().enumerate() {
+        let depth = atoms
+            .iter()
+            .map(|&atom| projected[atom].depth)
+            .fold(f64::INFINITY, f64::min)
+            - 1e-3;
+        items.push((depth, Item::Star(index)));
     }
     items.sort_by(|a, b| a.0.total_cmp(&b.0));
 
@@ -155,32 +166,36 @@ pub fn show(
         Color32::from_gray(60)
     };
     let pixels_per_angstrom = scale(molecule, camera, rect);
-    let bond_width = (0.14 * pixels_per_angstrom).clamp(2.0, 14.0);
+    let style = StickStyle {
+        width: (0.14 * pixels_per_angstrom).clamp(2.0, 14.0),
+        outline,
+        ink: if dark {
+            Color32::from_gray(200)
+        } else {
+            Color32::from_gray(60)
+        },
+    };
     for (_, item) in &items {
         match *item {
             Item::Bond(index) => {
-                let bond = molecule.bonds[index];
-                let (a, b) = (&projected[bond.a], &projected[bond.b]);
-                let middle = a.screen + (b.screen - a.screen) * 0.5;
-                let colour_a = element_colour(molecule.atoms[bond.a].element);
-                let colour_b = element_colour(molecule.atoms[bond.b].element);
-                painter.line_segment([a.screen, b.screen], Stroke::new(bond_width + 2.0, outline));
-                painter.line_segment([a.screen, middle], Stroke::new(bond_width, colour_a));
-                painter.line_segment([middle, b.screen], Stroke::new(bond_width, colour_b));
-                if bond.order > 1 {
-                    // Multiple bonds: thin light stripes along the stick, one per extra order.
-                    let direction = (b.screen - a.screen).normalized();
-                    let normal = Vec2::new(-direction.y, direction.x);
-                    for stripe in 1..bond.order {
-                        let offset =
-                            normal * bond_width * (stripe as f32 - bond.order as f32 / 2.0)
-                                / bond.order as f32;
-                        painter.line_segment(
-                            [a.screen + offset, b.screen + offset],
-                            Stroke::new(1.2, Color32::from_white_alpha(170)),
-                        );
-                    }
-                }
+                let stick = &bonds.sticks[index];
+                paint_stick(
+                    &painter,
+                    stick,
+                    [projected[stick.a].screen, projected[stick.b].screen],
+                    [
+                        element_colour(molecule.atoms[stick.a].element),
+                        element_colour(molecule.atoms[stick.b].element),
+                    ],
+                    &style,
+                );
+            }
+            Item::Star(index) => {
+                let ends: Vec<Pos2> = bonds.stars[index]
+                    .iter()
+                    .map(|&atom| projected[atom].screen)
+                    .collect();
+                paint_star(&painter, &ends, &style);
             }
             Item::Atom(index) => {
                 let p = &projected[index];
