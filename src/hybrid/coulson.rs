@@ -98,49 +98,18 @@ pub fn geometric_hybrids(
     lone_pairs: usize,
     convention: LonePairConvention,
 ) -> Result<GeometricHybrids, CoulsonError> {
-    let bond_count = bond_directions.len();
-    let wanted = bond_count + pi_orbitals.len() + lone_pairs;
+    let wanted = bond_directions.len() + pi_orbitals.len() + lone_pairs;
     if wanted > 4 {
         return Err(CoulsonError::TooManyOrbitals { wanted });
     }
+    let bond_count = bond_directions.len();
     if bond_count < 2 && (lone_pairs > 0 || bond_count == 1) {
         return Err(CoulsonError::Underdetermined);
     }
     let units: Vec<Vector3<f64>> = bond_directions.iter().map(|d| d.normalize()).collect();
-    let cosine = |i: usize, j: usize| units[i].dot(&units[j]).clamp(-1.0, 1.0);
-    for i in 0..bond_count {
-        for j in i + 1..bond_count {
-            if cosine(i, j) >= -1e-9 {
-                return Err(CoulsonError::AngleTooSmall {
-                    angle: cosine(i, j).acos().to_degrees(),
-                });
-            }
-        }
-    }
-    let lambdas: Vec<f64> = match bond_count {
-        0 => Vec::new(),
-        2 => vec![-1.0 / cosine(0, 1); 2],
-        3 => (0..3)
-            .map(|i| {
-                let (j, k) = ((i + 1) % 3, (i + 2) % 3);
-                -cosine(j, k) / (cosine(i, j) * cosine(i, k))
-            })
-            .collect(),
-        _ => least_squares_lambdas(bond_count, &cosine),
-    };
-    let mut residual_sum = 0.0;
-    let mut pairs = 0;
-    for i in 0..bond_count {
-        for j in i + 1..bond_count {
-            residual_sum += (1.0 + (lambdas[i] * lambdas[j]).sqrt() * cosine(i, j)).powi(2);
-            pairs += 1;
-        }
-    }
-    let residual = if pairs > 0 {
-        (residual_sum / pairs as f64).sqrt()
-    } else {
-        0.0
-    };
+    check_angles(&units)?;
+    let lambdas = bond_lambdas(&units);
+    let residual = orthogonality_residual(&units, &lambdas);
     let bonds: Vec<SpHybrid> = lambdas
         .iter()
         .zip(&units)
@@ -150,21 +119,85 @@ pub fn geometric_hybrids(
     if lone_pairs > 0 && share < -1e-9 {
         return Err(CoulsonError::NegativeLonePairShare { share });
     }
-    let mut taken: Vec<Vector4<f64>> = bonds.iter().map(|h| h.coefficients).collect();
+    let lone = lone_pairs_beside(&bonds, pi_orbitals, lone_pairs, &units, convention);
+    Ok(GeometricHybrids {
+        bonds,
+        lone_pairs: lone,
+        residual,
+    })
+}
+
+/// cos ω_ij between the unit bond vectors i and j, clamped against rounding.
+fn cosine(units: &[Vector3<f64>], i: usize, j: usize) -> f64 {
+    units[i].dot(&units[j]).clamp(-1.0, 1.0)
+}
+
+/// Every two bonds must be more than 90° apart: 1 + √(λ_i λ_j) cos ω_ij = 0 needs
+/// cos ω_ij < 0.
+fn check_angles(units: &[Vector3<f64>]) -> Result<(), CoulsonError> {
+    for i in 0..units.len() {
+        for j in i + 1..units.len() {
+            if cosine(units, i, j) >= -1e-9 {
+                return Err(CoulsonError::AngleTooSmall {
+                    angle: cosine(units, i, j).acos().to_degrees(),
+                });
+            }
+        }
+    }
+    Ok(())
+}
+
+/// λ of each bond: closed forms for two and three bonds, least squares for more.
+fn bond_lambdas(units: &[Vector3<f64>]) -> Vec<f64> {
+    let cosine = |i: usize, j: usize| cosine(units, i, j);
+    match units.len() {
+        0 => Vec::new(),
+        2 => vec![-1.0 / cosine(0, 1); 2],
+        3 => (0..3)
+            .map(|i| {
+                let (j, k) = ((i + 1) % 3, (i + 2) % 3);
+                -cosine(j, k) / (cosine(i, j) * cosine(i, k))
+            })
+            .collect(),
+        count => least_squares_lambdas(count, &cosine),
+    }
+}
+
+/// RMS of 1 + √(λ_i λ_j) cos ω_ij over the bond pairs; 0 with fewer than two bonds.
+fn orthogonality_residual(units: &[Vector3<f64>], lambdas: &[f64]) -> f64 {
+    let mut residual_sum = 0.0;
+    let mut pairs = 0;
+    for i in 0..units.len() {
+        for j in i + 1..units.len() {
+            residual_sum += (1.0 + (lambdas[i] * lambdas[j]).sqrt() * cosine(units, i, j)).powi(2);
+            pairs += 1;
+        }
+    }
+    if pairs > 0 {
+        (residual_sum / pairs as f64).sqrt()
+    } else {
+        0.0
+    }
+}
+
+/// The lone pairs in the s,p space left free by the bonds and the π orbitals.
+fn lone_pairs_beside(
+    bonds: &[SpHybrid],
+    pi_orbitals: &[Vector3<f64>],
+    lone_pairs: usize,
+    units: &[Vector3<f64>],
+    convention: LonePairConvention,
+) -> Vec<SpHybrid> {
+    let taken: Vec<Vector4<f64>> = bonds.iter().map(|h| h.coefficients).collect();
     // When the bonds are not exactly orthogonal (≥ 4 bonds), orthonormalize them first.
-    taken = gram_schmidt(&taken);
+    let mut taken = gram_schmidt(&taken);
     for p in pi_orbitals {
         let d = p.normalize();
         taken.push(Vector4::new(0.0, d.x, d.y, d.z));
     }
     let taken = gram_schmidt(&taken);
     let complement = orthonormal_complement(&taken);
-    let lone = lone_pair_hybrids(&complement, lone_pairs, &units, convention);
-    Ok(GeometricHybrids {
-        bonds,
-        lone_pairs: lone,
-        residual,
-    })
+    lone_pair_hybrids(&complement, lone_pairs, units, convention)
 }
 
 /// λ for four or more bonds: minimize Σ (1 + x_i x_j cos ω_ij)² over x_i = √λ_i by

@@ -3,9 +3,9 @@
 //! centre's s,p functions, by Löwdin's symmetric orthogonalization T (TᵀT)^(−1/2)
 //! (P.-O. Löwdin, J. Chem. Phys. 18, 365 (1950)). The partner orbital is the partner's own
 //! hybrid toward this centre (or a hydrogen 1s), so the centres are iterated to
-//! self-consistency. Where the bonds are strained the hybrids leave the internuclear axes:
-//! the bent bonds of cyclopropane (C. A. Coulson and W. E. Moffitt, Phil. Mag. 40, 1
-//! (1949)).
+//! self-consistency (the iteration over centres is in `hybrid::iterate`). Where the
+//! bonds are strained the hybrids leave the internuclear axes: the bent bonds of
+//! cyclopropane (C. A. Coulson and W. E. Moffitt, Phil. Mag. 40, 1 (1949)).
 //!
 //! π orbitals are fixed first (pure p along the directions from `centres`), the σ hybrids
 //! are sought in the space orthogonal to them, and the lone pairs and vacant orbitals
