@@ -16,8 +16,8 @@
 //!   charges), and in a 3c–4e unit 1 (centre) and 3/2 (each terminal), the average of the
 //!   two resonance structures X–A :X⁻ ↔ ⁻X: A–X.
 //! - **Lewis share**: the fraction of the electrons in one- and two-centre orbitals outside
-//!   3c–4e units — how well one Lewis structure describes the molecule (1 for methane;
-//!   lower for ozone, benzene's π system, diborane).
+//!   3c–4e units and off over-complete atoms — how well one Lewis structure describes the
+//!   molecule (1 for methane; lower for ozone, benzene's π system, diborane, SF6).
 
 use nalgebra::DMatrix;
 use serde::Serialize;
@@ -107,14 +107,17 @@ impl LewisStructure {
     }
 }
 
-/// Reads the structure. `valence` holds each atom's valence electrons.
+/// Reads the structure. `valence` holds each atom's valence electrons; `over_complete`
+/// marks the atoms whose orbitals share their valence functions (their two-centre
+/// orbitals are not one Lewis structure's bonds, so they leave the Lewis share).
 pub fn read(
     orbitals: &[LocalizedOrbital],
     units: &[ThreeCentreUnit],
     wiberg: &DMatrix<f64>,
     valence: &[f64],
+    over_complete: &[bool],
 ) -> LewisStructure {
-    let mut tally = Tally::new(valence.len());
+    let mut tally = Tally::new(valence.len(), over_complete);
     for orbital in orbitals.iter().filter(|o| o.space != OrbitalSpace::Virtual) {
         tally.add_orbital(orbital);
     }
@@ -125,7 +128,8 @@ pub fn read(
 }
 
 /// What the orbitals add up to, atom by atom and pair by pair.
-struct Tally {
+struct Tally<'a> {
+    over_complete: &'a [bool],
     order: DMatrix<f64>,
     owned: Vec<f64>,
     lone: Vec<usize>,
@@ -134,9 +138,10 @@ struct Tally {
     total: f64,
 }
 
-impl Tally {
-    fn new(atoms: usize) -> Tally {
+impl<'a> Tally<'a> {
+    fn new(atoms: usize, over_complete: &'a [bool]) -> Tally<'a> {
         Tally {
+            over_complete,
             order: DMatrix::zeros(atoms, atoms),
             owned: vec![0.0; atoms],
             lone: vec![0; atoms],
@@ -155,6 +160,10 @@ impl Tally {
         for (&atom, share) in orbital.centres.iter().zip(ownership(orbital)) {
             self.owned[atom] += share;
         }
+        let shared = orbital
+            .centres
+            .iter()
+            .any(|&a| self.over_complete.get(a).copied().unwrap_or(false));
         if orbital.space == OrbitalSpace::Partly {
             self.structure.unpaired.push(Unpaired {
                 atoms: sorted(&orbital.centres),
@@ -163,13 +172,17 @@ impl Tally {
         }
         match orbital.class {
             OrbitalClass::OneCentre => {
-                self.lewis_electrons += orbital.occupancy;
+                if !shared {
+                    self.lewis_electrons += orbital.occupancy;
+                }
                 if orbital.space == OrbitalSpace::Doubly {
                     self.lone[orbital.centres[0]] += 1;
                 }
             }
             OrbitalClass::TwoCentre => {
-                self.lewis_electrons += orbital.occupancy;
+                if !shared {
+                    self.lewis_electrons += orbital.occupancy;
+                }
                 let sign = if orbital.antibonding { -1.0 } else { 1.0 };
                 self.add_order(
                     orbital.centres[0],

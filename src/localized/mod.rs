@@ -227,9 +227,10 @@ pub fn read_localized(
         .iter()
         .map(|a| f64::from(a.element.valence_electrons()))
         .collect();
-    let lewis = lewis::read(&orbitals, &units, &wiberg, &valence);
     let (hybrids, hybrid_notes) =
         hybrids::read_hybrids(&orbitals, &vectors, &units, layout, molecule);
+    let over_complete: Vec<bool> = hybrids.iter().map(|h| h.over_complete).collect();
+    let lewis = lewis::read(&orbitals, &units, &wiberg, &valence, &over_complete);
     let mut notes = notes::picture_notes(&orbitals, &units, &lewis, &spaces, molecule);
     notes.extend(hybrid_notes);
     notes.extend(hybrids::bent_notes(&hybrids, molecule));
