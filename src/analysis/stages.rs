@@ -13,7 +13,7 @@ use crate::eht::EhtResult;
 use crate::hybrid::{self, HybridAnalysis, HybridKind, HybridModel, HybridSettings};
 use crate::localized::switch::compare_mixing;
 use crate::localized::weights::{LevelSets, Metric, link};
-use crate::localized::{LocalizedPicture, ladder, orthonormal, true_occupancies};
+use crate::localized::{LocalizedPicture, ladder, orthonormal};
 
 /// Weights below this are left out of the link list (DESIGN §4.6: entries above 1e-4).
 const LINK_LIST_THRESHOLD: f64 = 1e-4;
@@ -338,12 +338,14 @@ fn links(
         LINK_LIST_THRESHOLD,
     )
     .map_err(|e| e.to_string())?;
-    let occupancies = true_occupancies(vectors, canonical, &eht.occupations);
-    for ((orbital, captured), occupancy) in
-        localized.iter_mut().zip(&found.captured).zip(occupancies)
+    // Σ_j n_j w_kj: the true occupancy of each level, from the same weights.
+    for ((orbital, captured), occupancy) in localized
+        .iter_mut()
+        .zip(&found.captured)
+        .zip(&found.occupancy)
     {
         orbital.captured = *captured;
-        orbital.occupancy = occupancy;
+        orbital.occupancy = *occupancy;
     }
     Ok(found
         .entries

@@ -41,6 +41,8 @@ pub use orthonormal::AtomLayout;
 use crate::chem::molecule::Molecule;
 use crate::eht::EhtResult;
 
+/// Above this many valence MOs the spaces are localized in parallel threads.
+const PARALLEL_ABOVE: usize = 64;
 /// Occupations within this of 0 or 2 count as empty or full.
 const OCCUPATION_TOLERANCE: f64 = 1e-9;
 pub use notes::LOW_LEWIS_SHARE;
@@ -166,32 +168,49 @@ pub fn analyze_wavefunction(
         method: settings.method,
         max_sweeps: settings.max_sweeps,
     };
-    let mut blocks = Vec::new();
-    for space in [
+    let spaces: Vec<(OrbitalSpace, Vec<usize>)> = [
         OrbitalSpace::Doubly,
         OrbitalSpace::Partly,
         OrbitalSpace::Virtual,
-    ] {
-        let members = space_members(wavefunction.occupations, space);
-        if members.is_empty() {
-            continue;
-        }
-        let result = localize::localize(
-            &wavefunction.coefficients.select_columns(&members),
-            wavefunction.layout,
-            &options,
-        );
-        blocks.push(LocalizedBlock {
+    ]
+    .into_iter()
+    .map(|space| (space, space_members(wavefunction.occupations, space)))
+    .filter(|(_, members)| !members.is_empty())
+    .collect();
+    let localize_space = |(space, members): &(OrbitalSpace, Vec<usize>)| {
+        let columns = wavefunction.coefficients.select_columns(members);
+        let result = localize::localize(&columns, wavefunction.layout, &options);
+        LocalizedBlock {
             report: SpaceReport {
-                space,
+                space: *space,
                 orbitals: members.len(),
                 sweeps: result.sweeps,
                 converged: result.converged,
                 function_value: result.function_value,
             },
             orbitals: result.orbitals,
-        });
-    }
+        }
+    };
+    // The spaces are independent: large ones are localized side by side on the cores
+    // (a thread costs tens of µs, more than a small molecule's whole localization).
+    let blocks: Vec<LocalizedBlock> = if wavefunction.coefficients.ncols() > PARALLEL_ABOVE {
+        std::thread::scope(|scope| {
+            let handles: Vec<_> = spaces
+                .iter()
+                .map(|space| scope.spawn(|| localize_space(space)))
+                .collect();
+            handles
+                .into_iter()
+                .map(|handle| {
+                    handle
+                        .join()
+                        .unwrap_or_else(|panic| std::panic::resume_unwind(panic))
+                })
+                .collect()
+        })
+    } else {
+        spaces.iter().map(localize_space).collect()
+    };
     read_localized(molecule, wavefunction, settings.method, blocks)
 }
 
