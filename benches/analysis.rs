@@ -1,6 +1,7 @@
 //! Criterion benchmark of the whole pipeline, `Analysis::run` (symmetry, extended Hückel,
 //! hybrids, lone-pair switch, labels, localized ladder, links), on fixed geometries from
-//! tests/reference/rdkit_geometries/. Target (issue 6): C60 under 120 ms.
+//! tests/reference/rdkit_geometries/ (C60 164 ms on the 2-core reference machine with the
+//! localized picture read from the wavefunction; see the README's Speed section).
 
 mod support;
 

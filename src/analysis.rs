@@ -330,12 +330,15 @@ fn orbital_summaries(eht: &EhtResult) -> Vec<OrbitalSummary> {
                 .orbitals
                 .iter()
                 .enumerate()
-                .map(|(mu, ao)| AoShare {
+                .map(|(mu, ao)| (ao, eht.coefficients[(mu, index)] * sc[(mu, index)]))
+                // Filter before naming: a label is a string, and large molecules have
+                // basis × MOs shares.
+                .filter(|(_, share)| share.abs() >= 0.01)
+                .map(|(ao, share)| AoShare {
                     atom: ao.atom,
                     orbital: ao.label(),
-                    share: eht.coefficients[(mu, index)] * sc[(mu, index)],
+                    share,
                 })
-                .filter(|share| share.share.abs() >= 0.01)
                 .collect();
             composition.sort_by(|a, b| b.share.abs().total_cmp(&a.share.abs()));
             OrbitalSummary {
