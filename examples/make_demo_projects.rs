@@ -47,6 +47,26 @@ const DEMO: &[(&str, &str, &str)] = &[
         "CH3Cl canonical MOs",
         "CH3Cl chlorine lone pairs",
     ),
+    (
+        "sulfur_hexafluoride",
+        "SF6 canonical MOs",
+        "SF6 seven-centre bonds and F lone pairs",
+    ),
+    (
+        "diborane",
+        "B2H6 canonical MOs",
+        "B2H6 terminal and B–H–B bridge bonds",
+    ),
+    (
+        "dioxygen",
+        "O2 canonical MOs",
+        "O2 σ, π and singly filled π*",
+    ),
+    (
+        "carbon_monoxide",
+        "CO canonical MOs",
+        "CO triple bond and lone pairs",
+    ),
 ];
 
 fn main() -> Result<(), Box<dyn std::error::Error>> {

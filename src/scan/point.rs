@@ -1,7 +1,8 @@
 //! What a scan keeps of one point's `Analysis`: the canonical levels (energy, occupation,
 //! irrep, label) with the MO coefficients and AO overlap needed to follow them, λ of every
 //! centre's bond and lone-pair hybrids in the geometric model (Coulson, *Valence*, 1952)
-//! and the localized-MO model (Pipek–Mezey), and Σ occupancy × ε.
+//! and the model read from the localized orbitals (intrinsic bond orbitals by default),
+//! and Σ occupancy × ε.
 
 use nalgebra::DMatrix;
 use serde::{Deserialize, Serialize};
@@ -114,10 +115,10 @@ pub struct PointData {
     pub notes: Vec<String>,
 }
 
-/// The settings a scan point runs with: the document's settings with the localized-MO
-/// hybrid model, so that one `Analysis::run` gives both λ sets (the run keeps the
-/// geometric model's hybrids in `Analysis::hybrids` for the lone-pair switch, and puts the
-/// localized-MO hybrids in `hybrid_entries`).
+/// The settings a scan point runs with: the document's settings with the hybrids read from
+/// the localized orbitals, so that one `Analysis::run` gives both λ sets (the run keeps the
+/// geometric model's hybrids quietly in `Analysis::hybrids` and puts the wavefunction's in
+/// `hybrid_entries`).
 pub fn point_settings(settings: &Settings) -> Settings {
     let mut settings = settings.clone();
     settings.hybrid.model = HybridModel::Localized;
