@@ -61,25 +61,30 @@ pub fn pymatgen_molecules() -> Vec<Molecule> {
         .expect("molecules")
         .iter()
         .map(|entry| {
-            let symbols = entry["symbols"].as_array().unwrap();
-            let coordinates = entry["ideal"].as_array().unwrap();
-            let atoms = symbols
-                .iter()
-                .zip(coordinates)
-                .map(|(s, c)| {
-                    let c: Vec<f64> = c
-                        .as_array()
-                        .unwrap()
-                        .iter()
-                        .map(|x| x.as_f64().unwrap())
-                        .collect();
-                    Atom::new(
-                        Element::from_symbol(s.as_str().unwrap()).unwrap(),
-                        [c[0], c[1], c[2]],
-                    )
-                })
-                .collect();
+            let atoms = atoms_from_json(&entry["symbols"], &entry["ideal"]);
             Molecule::new(entry["name"].as_str().unwrap(), atoms, 0)
+        })
+        .collect()
+}
+
+/// Atoms from a JSON list of element symbols and one of [x, y, z] positions (Å).
+fn atoms_from_json(symbols: &Value, coordinates: &Value) -> Vec<Atom> {
+    let symbols = symbols.as_array().expect("symbols");
+    let coordinates = coordinates.as_array().expect("coordinates");
+    symbols
+        .iter()
+        .zip(coordinates)
+        .map(|(s, c)| {
+            let c: Vec<f64> = c
+                .as_array()
+                .expect("x, y, z")
+                .iter()
+                .map(|x| x.as_f64().unwrap())
+                .collect();
+            Atom::new(
+                Element::from_symbol(s.as_str().unwrap()).unwrap(),
+                [c[0], c[1], c[2]],
+            )
         })
         .collect()
 }
@@ -128,24 +133,7 @@ pub fn matrix(value: &Value) -> nalgebra::DMatrix<f64> {
 pub fn pyscf_molecule(fixture: &Value, section: &str, name: &str) -> PyscfMolecule {
     use diptych::chem::ao::AngularKind;
     let entry = fixture[section]["molecules"][name].clone();
-    let symbols = entry["symbols"].as_array().unwrap();
-    let coordinates = entry["geometry_angstrom"].as_array().unwrap();
-    let atoms = symbols
-        .iter()
-        .zip(coordinates)
-        .map(|(s, c)| {
-            let c: Vec<f64> = c
-                .as_array()
-                .unwrap()
-                .iter()
-                .map(|x| x.as_f64().unwrap())
-                .collect();
-            Atom::new(
-                Element::from_symbol(s.as_str().unwrap()).unwrap(),
-                [c[0], c[1], c[2]],
-            )
-        })
-        .collect();
+    let atoms = atoms_from_json(&entry["symbols"], &entry["geometry_angstrom"]);
     let kinds = entry["ao_labels"]
         .as_array()
         .unwrap()
