@@ -152,6 +152,14 @@ pub fn localize(
         since_full = 0;
         gradient = state.sweep(true);
         converged = gradient < GRADIENT_TOLERANCE;
+        if converged && state.screen {
+            // Screened sweeps skip pairs that share no atom of their supports; the sweep
+            // that declares convergence visits every pair.
+            state.screen = false;
+            gradient = state.sweep(true);
+            converged = gradient < GRADIENT_TOLERANCE;
+            state.screen = true;
+        }
         // A steady linear decrease (ratio between ½ and 1) is the slow phase.
         let ratio = gradient / previous;
         state.omega = if ratio > 0.5 && ratio < 1.0 {
@@ -204,8 +212,10 @@ const ACTIVE_FRACTION: f64 = 1e-2;
 
 /// Sets with more orbitals than this are screened: a pair is visited only when the two
 /// orbitals share an atom of their supports, and only the atoms of either support enter
-/// its function. Our choice, no source (atoms where both populations are below
-/// [`SUPPORT_POPULATION`] change the pair's function by less than about 1e-12).
+/// its function (atoms where both populations are below [`SUPPORT_POPULATION`] change the
+/// function and its gradient by less than 2τ² = 2e-14 each, as |x| ≤ √(q_i q_j)). A pair
+/// without a shared atom can still have a small gradient, so convergence is only declared
+/// by a sweep over every pair. Our choice, no source.
 const SCREEN_ABOVE: usize = 48;
 /// An atom belongs to an orbital's support above this population.
 const SUPPORT_POPULATION: f64 = 1e-7;
