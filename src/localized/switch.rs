@@ -87,6 +87,40 @@ pub fn hold_non_bonding(
     lone_pairs: &[DVector<f64>],
     electrons: usize,
 ) -> Result<HeldSolution, MixingError> {
+    let n = check_shapes(h, s, atom_ranges)?;
+    let atoms = lone_pair_atoms(lone_pairs, atom_ranges, n)?;
+    let rotation = Rotation::build(s, atom_ranges, lone_pairs, &atoms)?;
+    let functions = rotation.functions();
+    let mut h_t = rotation.t.transpose() * h * &rotation.t;
+    let mut s_t = rotation.t.transpose() * s * &rotation.t;
+    for &p in &functions {
+        for q in (0..n).filter(|&q| q != p) {
+            h_t[(p, q)] = 0.0;
+            h_t[(q, p)] = 0.0;
+            s_t[(p, q)] = 0.0;
+            s_t[(q, p)] = 0.0;
+        }
+    }
+    let lone_pair_energies = functions
+        .iter()
+        .map(|&p| h_t[(p, p)] / s_t[(p, p)])
+        .collect();
+    let mut solution = solve(&h_t, &s_t, electrons)?;
+    solution.coefficients = &rotation.t * &solution.coefficients;
+    Ok(HeldSolution {
+        solution,
+        lone_pair_functions: functions,
+        lone_pair_energies,
+        lone_pair_orbitals: rotation.orbitals,
+    })
+}
+
+/// The basis size, when H, S and the atom ranges agree.
+fn check_shapes(
+    h: &DMatrix<f64>,
+    s: &DMatrix<f64>,
+    atom_ranges: &[Range<usize>],
+) -> Result<usize, MixingError> {
     let n = s.nrows();
     if n == 0 || s.ncols() != n || h.nrows() != n || h.ncols() != n {
         return Err(MixingError::Solve(EhtError::DimensionMismatch {
@@ -99,7 +133,15 @@ pub fn hold_non_bonding(
     {
         return Err(MixingError::Ranges { basis: n });
     }
-    // Atom of each lone pair.
+    Ok(n)
+}
+
+/// The atom of each lone pair (its only atom with coefficients).
+fn lone_pair_atoms(
+    lone_pairs: &[DVector<f64>],
+    atom_ranges: &[Range<usize>],
+    n: usize,
+) -> Result<Vec<usize>, MixingError> {
     let mut atoms = Vec::with_capacity(lone_pairs.len());
     for (index, lp) in lone_pairs.iter().enumerate() {
         if lp.len() != n {
@@ -128,91 +170,104 @@ pub fn hold_non_bonding(
         }
         atoms.push(found.ok_or(MixingError::Empty { index })?);
     }
-    // The transformation T: identity except in the blocks of atoms with lone pairs.
-    let mut t = DMatrix::<f64>::identity(n, n);
-    let mut lone_pair_functions = Vec::new();
-    let mut lone_pair_orbitals = DMatrix::zeros(n, lone_pairs.len());
-    for (atom, range) in atom_ranges.iter().enumerate() {
-        let mine: Vec<usize> = (0..lone_pairs.len())
-            .filter(|&i| atoms[i] == atom)
-            .collect();
-        if mine.is_empty() {
-            continue;
-        }
-        let block = s.view((range.start, range.start), (range.len(), range.len()));
-        let mut columns: Vec<DVector<f64>> = Vec::new();
-        let s_dot = |a: &DVector<f64>, b: &DVector<f64>| a.dot(&(block * b));
-        let push = |v: DVector<f64>, columns: &mut Vec<DVector<f64>>| -> bool {
-            let mut v = v;
-            for c in columns.iter() {
-                let proj = s_dot(c, &v);
-                v.axpy(-proj, c, 1.0);
-            }
-            // Second pass for numerical orthogonality.
-            for c in columns.iter() {
-                let proj = s_dot(c, &v);
-                v.axpy(-proj, c, 1.0);
-            }
-            let norm2 = s_dot(&v, &v);
-            if norm2 > DEPENDENCE_THRESHOLD {
-                columns.push(v / norm2.sqrt());
-                true
-            } else {
-                false
-            }
+    Ok(atoms)
+}
+
+/// The basis rotation T: identity except in the blocks of atoms with lone pairs, where the
+/// lone pairs come first and Gram–Schmidt (S metric) completes the block.
+struct Rotation {
+    t: DMatrix<f64>,
+    /// (lone pair, its function in the rotated basis).
+    held: Vec<(usize, usize)>,
+    /// The orthonormalized lone pairs over the original basis (columns).
+    orbitals: DMatrix<f64>,
+}
+
+impl Rotation {
+    fn build(
+        s: &DMatrix<f64>,
+        atom_ranges: &[Range<usize>],
+        lone_pairs: &[DVector<f64>],
+        atoms: &[usize],
+    ) -> Result<Rotation, MixingError> {
+        let n = s.nrows();
+        let mut rotation = Rotation {
+            t: DMatrix::identity(n, n),
+            held: Vec::new(),
+            orbitals: DMatrix::zeros(n, lone_pairs.len()),
         };
-        for &i in &mine {
-            let restricted = lone_pairs[i].rows(range.start, range.len()).clone_owned();
-            if !push(restricted, &mut columns) {
-                return Err(MixingError::Dependent { index: i, atom });
+        for (atom, range) in atom_ranges.iter().enumerate() {
+            let mine: Vec<usize> = (0..lone_pairs.len())
+                .filter(|&i| atoms[i] == atom)
+                .collect();
+            if mine.is_empty() {
+                continue;
+            }
+            let block = s.view((range.start, range.start), (range.len(), range.len()));
+            let columns = block_basis(block, lone_pairs, &mine, range, atom)?;
+            for (c, column) in columns.iter().enumerate() {
+                for r in 0..range.len() {
+                    rotation.t[(range.start + r, range.start + c)] = column[r];
+                }
+            }
+            for (c, &i) in mine.iter().enumerate() {
+                rotation.held.push((i, range.start + c));
+                for r in 0..range.len() {
+                    rotation.orbitals[(range.start + r, i)] = columns[c][r];
+                }
             }
         }
-        for mu in 0..range.len() {
-            if columns.len() == range.len() {
-                break;
+        rotation.held.sort_unstable();
+        Ok(rotation)
+    }
+
+    /// The held functions, in lone-pair order.
+    fn functions(&self) -> Vec<usize> {
+        self.held.iter().map(|&(_, f)| f).collect()
+    }
+}
+
+/// An S-orthonormal basis of one atom's block: its lone pairs first (in order), then the
+/// atom's functions to complete it.
+fn block_basis(
+    block: nalgebra::DMatrixView<'_, f64>,
+    lone_pairs: &[DVector<f64>],
+    mine: &[usize],
+    range: &Range<usize>,
+    atom: usize,
+) -> Result<Vec<DVector<f64>>, MixingError> {
+    let s_dot = |a: &DVector<f64>, b: &DVector<f64>| a.dot(&(block * b));
+    let push = |mut v: DVector<f64>, columns: &mut Vec<DVector<f64>>| -> bool {
+        // Twice, for numerical orthogonality.
+        for _ in 0..2 {
+            for c in columns.iter() {
+                let proj = s_dot(c, &v);
+                v.axpy(-proj, c, 1.0);
             }
-            let mut e = DVector::zeros(range.len());
-            e[mu] = 1.0;
-            push(e, &mut columns);
         }
-        for (c, column) in columns.iter().enumerate() {
-            for r in 0..range.len() {
-                t[(range.start + r, range.start + c)] = column[r];
-            }
+        let norm2 = s_dot(&v, &v);
+        let independent = norm2 > DEPENDENCE_THRESHOLD;
+        if independent {
+            columns.push(v / norm2.sqrt());
         }
-        for (c, &i) in mine.iter().enumerate() {
-            lone_pair_functions.push((i, range.start + c));
-            for r in 0..range.len() {
-                lone_pair_orbitals[(range.start + r, i)] = columns[c][r];
-            }
+        independent
+    };
+    let mut columns: Vec<DVector<f64>> = Vec::new();
+    for &i in mine {
+        let restricted = lone_pairs[i].rows(range.start, range.len()).clone_owned();
+        if !push(restricted, &mut columns) {
+            return Err(MixingError::Dependent { index: i, atom });
         }
     }
-    lone_pair_functions.sort_unstable();
-    let functions: Vec<usize> = lone_pair_functions.iter().map(|&(_, f)| f).collect();
-    let mut h_t = t.transpose() * h * &t;
-    let mut s_t = t.transpose() * s * &t;
-    for &p in &functions {
-        for q in 0..n {
-            if q != p {
-                h_t[(p, q)] = 0.0;
-                h_t[(q, p)] = 0.0;
-                s_t[(p, q)] = 0.0;
-                s_t[(q, p)] = 0.0;
-            }
+    for mu in 0..range.len() {
+        if columns.len() == range.len() {
+            break;
         }
+        let mut e = DVector::zeros(range.len());
+        e[mu] = 1.0;
+        push(e, &mut columns);
     }
-    let lone_pair_energies = functions
-        .iter()
-        .map(|&p| h_t[(p, p)] / s_t[(p, p)])
-        .collect();
-    let mut solution = solve(&h_t, &s_t, electrons)?;
-    solution.coefficients = &t * &solution.coefficients;
-    Ok(HeldSolution {
-        solution,
-        lone_pair_functions: functions,
-        lone_pair_energies,
-        lone_pair_orbitals,
-    })
+    Ok(columns)
 }
 
 /// The part of `orbital` (a vector over the full basis) on the atom whose functions are
@@ -274,14 +329,12 @@ pub fn compare_mixing(
 /// squared overlap is largest (Hungarian method, O(n³)). Returns the column of each row.
 /// A non-square matrix pairs the first min(rows, cols) rows; unpaired rows get `usize::MAX`.
 pub fn match_levels(overlaps: &DMatrix<f64>) -> Vec<usize> {
-    let rows = overlaps.nrows();
-    let cols = overlaps.ncols();
+    let (rows, cols) = (overlaps.nrows(), overlaps.ncols());
     let n = rows.max(cols);
     if n == 0 {
         return Vec::new();
     }
-    // Cost: −|o|², padded with zeros; 1-based potentials (the standard shortest augmenting
-    // path form of the Kuhn–Munkres algorithm).
+    // Cost: −|o|², padded with zeros.
     let cost = |i: usize, j: usize| -> f64 {
         if i < rows && j < cols {
             let o = overlaps[(i, j)];
@@ -290,31 +343,60 @@ pub fn match_levels(overlaps: &DMatrix<f64>) -> Vec<usize> {
             0.0
         }
     };
-    let mut u = vec![0.0; n + 1];
-    let mut v = vec![0.0; n + 1];
-    let mut p = vec![0usize; n + 1];
-    let mut way = vec![0usize; n + 1];
+    let mut state = Hungarian::new(n);
     for i in 1..=n {
-        p[0] = i;
+        state.augment(i, &cost);
+    }
+    let mut assignment = vec![usize::MAX; rows];
+    for (j, &i) in state.p.iter().enumerate().skip(1) {
+        if i >= 1 && i <= rows && j <= cols {
+            assignment[i - 1] = j - 1;
+        }
+    }
+    assignment
+}
+
+/// The shortest augmenting path form of the Kuhn–Munkres algorithm with 1-based
+/// potentials u, v; p[j] is the row assigned to column j.
+struct Hungarian {
+    n: usize,
+    u: Vec<f64>,
+    v: Vec<f64>,
+    p: Vec<usize>,
+    way: Vec<usize>,
+}
+
+impl Hungarian {
+    fn new(n: usize) -> Self {
+        Hungarian {
+            n,
+            u: vec![0.0; n + 1],
+            v: vec![0.0; n + 1],
+            p: vec![0; n + 1],
+            way: vec![0; n + 1],
+        }
+    }
+
+    /// Adds row i to the assignment along a shortest augmenting path.
+    fn augment(&mut self, i: usize, cost: &dyn Fn(usize, usize) -> f64) {
+        let n = self.n;
+        self.p[0] = i;
         let mut j0 = 0;
         let mut minv = vec![f64::INFINITY; n + 1];
         let mut used = vec![false; n + 1];
         loop {
             used[j0] = true;
-            let i0 = p[j0];
-            let mut delta = f64::INFINITY;
-            let mut j1 = 0;
-            for j in 1..=n {
-                if !used[j] {
-                    let cur = cost(i0 - 1, j - 1) - u[i0] - v[j];
-                    if cur < minv[j] {
-                        minv[j] = cur;
-                        way[j] = j0;
-                    }
-                    if minv[j] < delta {
-                        delta = minv[j];
-                        j1 = j;
-                    }
+            let i0 = self.p[j0];
+            let (mut delta, mut j1) = (f64::INFINITY, 0);
+            for j in (1..=n).filter(|&j| !used[j]) {
+                let cur = cost(i0 - 1, j - 1) - self.u[i0] - self.v[j];
+                if cur < minv[j] {
+                    minv[j] = cur;
+                    self.way[j] = j0;
+                }
+                if minv[j] < delta {
+                    delta = minv[j];
+                    j1 = j;
                 }
             }
             if j1 == 0 {
@@ -322,33 +404,26 @@ pub fn match_levels(overlaps: &DMatrix<f64>) -> Vec<usize> {
             }
             for j in 0..=n {
                 if used[j] {
-                    u[p[j]] += delta;
-                    v[j] -= delta;
+                    self.u[self.p[j]] += delta;
+                    self.v[j] -= delta;
                 } else {
                     minv[j] -= delta;
                 }
             }
             j0 = j1;
-            if p[j0] == 0 {
+            if self.p[j0] == 0 {
                 break;
             }
         }
         loop {
-            let j1 = way[j0];
-            p[j0] = p[j1];
+            let j1 = self.way[j0];
+            self.p[j0] = self.p[j1];
             j0 = j1;
             if j0 == 0 {
                 break;
             }
         }
     }
-    let mut assignment = vec![usize::MAX; rows];
-    for (j, &i) in p.iter().enumerate().skip(1) {
-        if i >= 1 && i <= rows && j <= cols {
-            assignment[i - 1] = j - 1;
-        }
-    }
-    assignment
 }
 
 #[cfg(test)]
