@@ -206,14 +206,19 @@ impl Rotation {
             let block = s.view((range.start, range.start), (range.len(), range.len()));
             let columns = block_basis(block, lone_pairs, &mine, range, atom)?;
             for (c, column) in columns.iter().enumerate() {
-                for r in 0..range.len() {
-                    rotation.t[(range.start + r, range.start + c)] = column[r];
+                for (r, &value) in column.iter().enumerate() {
+                    rotation.t[(range.start + r, range.start + c)] = value;
                 }
             }
-            for (c, &i) in mine.iter().enumerate() {
+            for (column, &i) in columns.iter().zip(&mine) {
+                let c = rotation
+                    .held
+                    .iter()
+                    .filter(|(_, f)| range.contains(f))
+                    .count();
                 rotation.held.push((i, range.start + c));
-                for r in 0..range.len() {
-                    rotation.orbitals[(range.start + r, i)] = columns[c][r];
+                for (r, &value) in column.iter().enumerate() {
+                    rotation.orbitals[(range.start + r, i)] = value;
                 }
             }
         }
