@@ -36,6 +36,10 @@ pub const CENTRE_SHARE: f64 = 0.9;
 pub const PI_PERPENDICULAR_SHARE: f64 = 0.5;
 /// The two orbitals' parts on the shared atom are parallel to at least this |cos|.
 pub const PARALLEL_COSINE: f64 = 0.9;
+/// Orbitals on the same two atoms whose populations there agree to this are treated as a
+/// degenerate set the localization may have rotated arbitrarily (rounding level of a
+/// converged localization; our choice, no source).
+const DEGENERATE_POPULATION: f64 = 1e-6;
 
 /// Which block of the canonical occupations an orbital was localized in.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Serialize, Deserialize)]
@@ -220,8 +224,8 @@ fn interaction(
 }
 
 /// Rotates, within each group of doubly occupied two-centre orbitals on the same pair of
-/// atoms, the orbitals so that their parts on a shared atom line up with those of another
-/// group (the singular vectors of the matrix of part overlaps). The groups of a linear
+/// atoms with equal populations there (a degenerate set), the orbitals so that their parts
+/// on a shared atom line up with those of another group (the singular vectors of the matrix of part overlaps). The groups of a linear
 /// molecule's π pairs (CO2) may be rotated arbitrarily by the localization, which leaves
 /// the function unchanged; this makes the two O's π orbitals share one C p orbital each
 /// before the 3c–4e search. Only groups that then meet [`PARALLEL_COSINE`] are rotated,
@@ -267,7 +271,21 @@ fn groups_at(orbitals: &[LocalizedOrbital], atom: usize) -> Vec<Vec<usize>> {
         let Some(other) = orbital.centres.iter().copied().find(|&x| x != atom) else {
             continue;
         };
-        match groups.iter_mut().find(|(x, _)| *x == other) {
+        // Only orbitals the localization could have rotated into each other (the same
+        // populations on the same atoms, as a linear molecule's π pair) are one group.
+        let same = |list: &Vec<usize>| {
+            let first = &orbitals[list[0]];
+            first.centres == orbital.centres
+                && first
+                    .centre_populations
+                    .iter()
+                    .zip(&orbital.centre_populations)
+                    .all(|(a, b)| (a - b).abs() < DEGENERATE_POPULATION)
+        };
+        match groups
+            .iter_mut()
+            .find(|(x, list)| *x == other && same(list))
+        {
             Some((_, list)) => list.push(k),
             None => groups.push((other, vec![k])),
         }

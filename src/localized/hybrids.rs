@@ -255,6 +255,36 @@ pub fn bent_notes(hybrids: &[AtomHybrids], molecule: &Molecule) -> Vec<String> {
     notes
 }
 
+/// Per 3c–4e unit, the electrons of partly occupied orbitals whose part on the unit's
+/// centre joined the centre's shared hybrid (a radical's electron in the unit's
+/// antibonding level).
+pub fn unit_antibonding(
+    hybrids: &[AtomHybrids],
+    orbitals: &[LocalizedOrbital],
+    units: &[ThreeCentreUnit],
+) -> Vec<f64> {
+    units
+        .iter()
+        .map(|unit| {
+            let Some(centre) = hybrids.iter().find(|h| h.atom == unit.atoms[1]) else {
+                return 0.0;
+            };
+            centre
+                .hybrids
+                .iter()
+                .find(|h| h.orbitals.contains(&unit.orbitals[0]))
+                .map_or(0.0, |shared| {
+                    shared
+                        .orbitals
+                        .iter()
+                        .filter(|&&k| orbitals[k].space == OrbitalSpace::Partly)
+                        .map(|&k| orbitals[k].occupancy)
+                        .sum()
+                })
+        })
+        .collect()
+}
+
 /// A group of nearly parallel parts on one atom.
 struct Cluster {
     /// (orbital, normalized part, population), largest population first.

@@ -2,7 +2,8 @@
 //!
 //! - **Bond order** of a pair: Σ (occupancy/2) × (+1 bonding, −1 antibonding) over its
 //!   two-centre orbitals, plus ½ per link of a three-centre four-electron bond
-//!   (G. C. Pimentel, J. Chem. Phys. 19, 446 (1951)). Beside it the Wiberg index in the
+//!   (G. C. Pimentel, J. Chem. Phys. 19, 446 (1951)), less ¼ per electron a radical puts
+//!   in that bond's antibonding level (3c–5e, as NO2's in-plane O–N–O). Beside it the Wiberg index in the
 //!   orthonormal basis (K. B. Wiberg, Tetrahedron 24, 1083 (1968)) as the continuous
 //!   measure. Pairs with a non-zero order, or a Wiberg index of at least
 //!   [`LISTED_WIBERG_INDEX`], are listed.
@@ -107,24 +108,34 @@ impl LewisStructure {
     }
 }
 
-/// Reads the structure. `valence` holds each atom's valence electrons; `over_complete`
-/// marks the atoms whose orbitals share their valence functions (their two-centre
-/// orbitals are not one Lewis structure's bonds, so they leave the Lewis share).
+/// What the structure is read from besides the orbitals: each atom's valence electrons,
+/// the atoms whose orbitals share their valence functions (`over_complete`: their
+/// two-centre orbitals are not one Lewis structure's bonds, so they leave the Lewis
+/// share), and per 3c–4e unit the electrons of partly occupied orbitals in its centre's
+/// shared orbital (`unit_antibonding`: NO2's unpaired electron sits in the antibonding
+/// level of the in-plane O–N–O unit, a 3c–5e bond).
+pub struct Context<'a> {
+    pub valence: &'a [f64],
+    pub over_complete: &'a [bool],
+    pub unit_antibonding: &'a [f64],
+}
+
+/// Reads the structure.
 pub fn read(
     orbitals: &[LocalizedOrbital],
     units: &[ThreeCentreUnit],
     wiberg: &DMatrix<f64>,
-    valence: &[f64],
-    over_complete: &[bool],
+    context: &Context<'_>,
 ) -> LewisStructure {
-    let mut tally = Tally::new(valence.len(), over_complete);
+    let mut tally = Tally::new(context.valence.len(), context.over_complete);
     for orbital in orbitals.iter().filter(|o| o.space != OrbitalSpace::Virtual) {
         tally.add_orbital(orbital);
     }
-    for unit in units {
-        tally.add_unit(unit, orbitals);
+    for (k, unit) in units.iter().enumerate() {
+        let antibonding = context.unit_antibonding.get(k).copied().unwrap_or(0.0);
+        tally.add_unit(unit, orbitals, antibonding);
     }
-    tally.finish(wiberg, valence)
+    tally.finish(wiberg, context.valence)
 }
 
 /// What the orbitals add up to, atom by atom and pair by pair.
@@ -201,16 +212,23 @@ impl<'a> Tally<'a> {
         }
     }
 
-    /// A 3c–4e unit: ½ per link; the centre owns a quarter of its electrons, each
+    /// A 3c–4e unit: ½ per link, less ¼ per electron in its antibonding level (a 3c–5e
+    /// bond has ¼ per link); the centre owns a quarter of its four electrons, each
     /// terminal three eighths.
-    fn add_unit(&mut self, unit: &ThreeCentreUnit, orbitals: &[LocalizedOrbital]) {
+    fn add_unit(
+        &mut self,
+        unit: &ThreeCentreUnit,
+        orbitals: &[LocalizedOrbital],
+        antibonding: f64,
+    ) {
         let [first, centre, second] = unit.atoms;
         let electrons: f64 = unit.orbitals.iter().map(|&k| orbitals[k].occupancy).sum();
         self.owned[centre] += electrons / 4.0;
         self.owned[first] += 3.0 * electrons / 8.0;
         self.owned[second] += 3.0 * electrons / 8.0;
-        self.add_order(first, centre, 0.5);
-        self.add_order(second, centre, 0.5);
+        let order = 0.5 - antibonding / 4.0;
+        self.add_order(first, centre, order);
+        self.add_order(second, centre, order);
         self.structure.multicentre.push(MulticentreBond {
             atoms: unit.atoms.to_vec(),
             electrons,

@@ -249,8 +249,21 @@ pub fn read_localized(
     let (hybrids, hybrid_notes) =
         hybrids::read_hybrids(&orbitals, &vectors, &units, layout, molecule);
     let over_complete: Vec<bool> = hybrids.iter().map(|h| h.over_complete).collect();
-    let lewis = lewis::read(&orbitals, &units, &wiberg, &valence, &over_complete);
-    let mut notes = notes::picture_notes(&orbitals, &units, &lewis, &spaces, molecule);
+    let unit_antibonding = hybrids::unit_antibonding(&hybrids, &orbitals, &units);
+    let context = lewis::Context {
+        valence: &valence,
+        over_complete: &over_complete,
+        unit_antibonding: &unit_antibonding,
+    };
+    let lewis = lewis::read(&orbitals, &units, &wiberg, &context);
+    let mut notes = notes::picture_notes(
+        &orbitals,
+        &units,
+        &unit_antibonding,
+        &lewis,
+        &spaces,
+        molecule,
+    );
     notes.extend(hybrid_notes);
     notes.extend(hybrids::bent_notes(&hybrids, molecule));
     LocalizedPicture {

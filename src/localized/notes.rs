@@ -16,6 +16,7 @@ pub const LOW_LEWIS_SHARE: f64 = 0.9;
 pub fn picture_notes(
     orbitals: &[LocalizedOrbital],
     units: &[ThreeCentreUnit],
+    unit_antibonding: &[f64],
     lewis: &LewisStructure,
     spaces: &[SpaceReport],
     molecule: &Molecule,
@@ -29,7 +30,7 @@ pub fn picture_notes(
         ));
     }
     notes.extend(open_shell(orbitals, lewis));
-    notes.extend(three_centre(units, molecule));
+    notes.extend(three_centre(units, unit_antibonding, molecule));
     notes.extend(multicentre(lewis, molecule));
     if lewis.lewis_share < LOW_LEWIS_SHARE {
         notes.push(format!(
@@ -63,15 +64,28 @@ fn open_shell(orbitals: &[LocalizedOrbital], lewis: &LewisStructure) -> Option<S
 }
 
 /// One note per distinct 3c–4e bond (CO2's two π bonds in one note).
-fn three_centre(units: &[ThreeCentreUnit], molecule: &Molecule) -> Vec<String> {
+fn three_centre(
+    units: &[ThreeCentreUnit],
+    unit_antibonding: &[f64],
+    molecule: &Molecule,
+) -> Vec<String> {
     let mut counted: Vec<(String, usize)> = Vec::new();
-    for unit in units {
+    for (k, unit) in units.iter().enumerate() {
         let kind = if unit.character == BondCharacter::Pi {
             "π"
         } else {
             "σ"
         };
-        let text = format!("{kind} {}", written(&unit.atoms, molecule));
+        let antibonding = unit_antibonding.get(k).copied().unwrap_or(0.0);
+        let order = if antibonding > 1e-9 {
+            format!(
+                "with {antibonding:.2} unpaired electron in its antibonding level, bond order {:.2} per link",
+                0.5 - antibonding / 4.0
+            )
+        } else {
+            "bond order ½ per link".to_string()
+        };
+        let text = format!("{kind} {}; {order}", written(&unit.atoms, molecule));
         match counted.iter_mut().find(|(t, _)| *t == text) {
             Some((_, count)) => *count += 1,
             None => counted.push((text, 1)),
@@ -85,7 +99,7 @@ fn three_centre(units: &[ThreeCentreUnit], molecule: &Molecule) -> Vec<String> {
             } else {
                 format!("{count} three-centre four-electron bonds")
             };
-            format!("{what} ({text}; bond order ½ per link): one Lewis structure cannot show it")
+            format!("{what} ({text}): one Lewis structure cannot show it")
         })
         .collect()
 }
