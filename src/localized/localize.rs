@@ -160,9 +160,10 @@ pub fn localize(
             converged = gradient < GRADIENT_TOLERANCE;
             state.screen = true;
         }
-        // A steady linear decrease (ratio between ½ and 1) is the slow phase.
+        // A steady linear decrease is the slow phase: a ratio between ½⁴ and 1 over the
+        // four sweeps since the last full one.
         let ratio = gradient / previous;
-        state.omega = if ratio > 0.5 && ratio < 1.0 {
+        state.omega = if ratio > 0.0625 && ratio < 1.0 {
             OVER_RELAXATION
         } else {
             1.0
