@@ -376,7 +376,7 @@ pub fn three_centre_units(
         .collect();
     for (x, &i) in eligible.iter().enumerate() {
         for &j in eligible.iter().skip(x + 1) {
-            let Some((atom, first, second)) = shared_centre(&orbitals[i], &orbitals[j]) else {
+            let Some((atom, _, _)) = shared_centre(&orbitals[i], &orbitals[j]) else {
                 continue;
             };
             let (pi, pj) = (
@@ -388,7 +388,6 @@ pub fn three_centre_units(
             let cosine = dot.abs() / (norm(&pi) * norm(&pj)).max(1e-300);
             if cosine >= PARALLEL_COSINE {
                 candidates.push((cosine, i, j, atom));
-                let _ = (first, second);
             }
         }
     }
