@@ -6,8 +6,8 @@
 
 use diptych::analysis::Analysis;
 use diptych::diagram::style::format_energy;
-use diptych::localized::ladder::chain_order;
 use diptych::localized::{LOW_LEWIS_SHARE, LewisStructure, LocalizedKind, MulticentreKind};
+use diptych::report::tables::atom_name;
 use eframe::egui;
 
 /// A localized level's kind in words.
@@ -53,10 +53,7 @@ pub fn show(ui: &mut egui::Ui, analysis: &Analysis, selected_atom: Option<usize>
     ));
     ui.add(egui::Label::new(share_sentence(lewis.lewis_share)).wrap());
     for bond in &lewis.multicentre {
-        let atoms: Vec<String> = chain_order(&bond.atoms, &analysis.molecule)
-            .into_iter()
-            .map(name)
-            .collect();
+        let atoms: Vec<String> = bond.atoms.iter().map(|&a| name(a)).collect();
         let kind = match bond.kind {
             MulticentreKind::Delocalized => format!("{}-centre bond", bond.atoms.len()),
             MulticentreKind::ThreeCentreFourElectron => {
@@ -74,13 +71,6 @@ pub fn show(ui: &mut egui::Ui, analysis: &Analysis, selected_atom: Option<usize>
         ui.add_space(4.0);
         atom_part(ui, analysis, lewis, atom);
     }
-}
-
-fn atom_name(analysis: &Analysis, atom: usize) -> String {
-    analysis.molecule.atoms.get(atom).map_or_else(
-        || format!("atom {atom}"),
-        |a| format!("{}{atom}", a.element),
-    )
 }
 
 fn unpaired_text(lewis: &LewisStructure, name: &dyn Fn(usize) -> String) -> String {

@@ -59,6 +59,7 @@ pub enum MulticentreKind {
 /// A multicentre bond.
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct MulticentreBond {
+    /// Its atoms; three in chain order (terminal, middle, terminal), more ascending.
     pub atoms: Vec<usize>,
     pub electrons: f64,
     pub kind: MulticentreKind,

@@ -255,7 +255,11 @@ pub fn read_localized(
         over_complete: &over_complete,
         unit_antibonding: &unit_antibonding,
     };
-    let lewis = lewis::read(&orbitals, &units, &wiberg, &context);
+    let mut lewis = lewis::read(&orbitals, &units, &wiberg, &context);
+    // Three atoms in chain order (B–H–B with the bridge in the middle), for every reader.
+    for bond in &mut lewis.multicentre {
+        bond.atoms = ladder::chain_order(&bond.atoms, molecule);
+    }
     let mut notes = notes::picture_notes(
         &orbitals,
         &units,

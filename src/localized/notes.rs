@@ -4,7 +4,6 @@
 
 use super::SpaceReport;
 use super::classify::{BondCharacter, LocalizedOrbital, OrbitalSpace, ThreeCentreUnit};
-use super::ladder::chain_order;
 use super::lewis::{LewisStructure, MulticentreKind};
 use crate::chem::molecule::Molecule;
 
@@ -41,9 +40,9 @@ pub fn picture_notes(
     notes
 }
 
-/// "O1–C0–O2": atoms with their indices, in chain order.
+/// "O1–C0–O2": atoms with their indices, in the order given.
 fn written(atoms: &[usize], molecule: &Molecule) -> String {
-    chain_order(atoms, molecule)
+    atoms
         .iter()
         .map(|&a| format!("{}{a}", molecule.atoms[a].element.symbol()))
         .collect::<Vec<_>>()
