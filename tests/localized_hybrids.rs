@@ -94,7 +94,7 @@ fn fluorine_makes_the_nitrogen_lone_pair_richer_in_s() {
 }
 
 /// Extended Hückel puts little 2s into the lone pairs of NH3 and H2O (ammonia's HOMO is
-/// 98 % N 2p), so their wavefunction hybrids do not follow Bent's rule; the analysis says so
+/// 96 % N 2p, 1.3 % N 2s by Mulliken shares), so their wavefunction hybrids do not follow Bent's rule; the analysis says so
 /// in a note, and the same reader on an ab initio wavefunction (PySCF STO-3G RHF water,
 /// valence MOs of tests/reference/pyscf_localized.json) does find the σ lone pair the
 /// s-richest hybrid.

@@ -219,7 +219,7 @@ pub fn read_hybrids(
 /// Bent's rule (H. A. Bent, Chem. Rev. 61, 275 (1961)) says a centre's lone pairs are its
 /// s-richest hybrids. Where the wavefunction's reading disagrees by more than one
 /// percentage point on a centre with two or more σ bonds, a note says so with the numbers: extended Hückel puts the 2s of N and
-/// O mostly into the bonds (ammonia's HOMO is 98 % N 2p), so the reading follows the
+/// O mostly into the bonds (ammonia's HOMO is 96 % N 2p and 1.3 % N 2s by Mulliken shares), so the reading follows the
 /// wavefunction, not the rule.
 pub fn bent_notes(hybrids: &[AtomHybrids], molecule: &Molecule) -> Vec<String> {
     let mut notes = Vec::new();
