@@ -337,26 +337,9 @@ fn aligned(
 
 /// An orthonormal k × k basis whose first columns are the orthonormal columns of `m`.
 fn completed(m: &DMatrix<f64>) -> DMatrix<f64> {
-    let k = m.nrows();
-    let mut columns: Vec<nalgebra::DVector<f64>> =
-        m.column_iter().map(|c| c.into_owned()).collect();
-    for i in 0..k {
-        if columns.len() == k {
-            break;
-        }
-        let mut e = nalgebra::DVector::zeros(k);
-        e[i] = 1.0;
-        for _ in 0..2 {
-            for c in &columns {
-                let p = c.dot(&e);
-                e.axpy(-p, c, 1.0);
-            }
-        }
-        if e.norm() > 1e-6 {
-            columns.push(e.normalize());
-        }
-    }
-    DMatrix::from_columns(&columns)
+    let columns = m.column_iter().map(|c| c.into_owned()).collect();
+    super::orthonormal::completed_basis(columns, m.nrows())
+        .unwrap_or_else(|| DMatrix::identity(m.nrows(), m.nrows()))
 }
 
 /// Finds the 3c–4e units among the doubly occupied orbitals (columns of `vectors`, in the

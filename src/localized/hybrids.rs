@@ -29,7 +29,7 @@ use super::classify::{
     BondCharacter, LocalizedOrbital, OrbitalClass, OrbitalSpace, PARALLEL_COSINE, ThreeCentreUnit,
     p_vector, part_on,
 };
-use super::orthonormal::AtomLayout;
+use super::orthonormal::{AtomLayout, push_orthonormal};
 use crate::chem::ao::AngularKind;
 use crate::chem::molecule::{Molecule, angle_between};
 
@@ -528,25 +528,6 @@ fn vacant_completion(
         push_orthonormal(&mut basis, candidate, 0.1);
     }
     basis.split_off(occupied_rank)
-}
-
-/// Gram–Schmidt (twice) of `v` against `basis`; appended when its norm stays above `floor`
-/// times its starting norm.
-fn push_orthonormal(basis: &mut Vec<DVector<f64>>, mut v: DVector<f64>, floor: f64) {
-    let start = v.norm();
-    if start <= 1e-12 {
-        return;
-    }
-    for _ in 0..2 {
-        for w in basis.iter() {
-            let p = w.dot(&v);
-            v.axpy(-p, w, 1.0);
-        }
-    }
-    let norm = v.norm();
-    if norm > floor * start {
-        basis.push(v / norm);
-    }
 }
 
 #[cfg(test)]

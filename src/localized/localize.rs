@@ -586,36 +586,7 @@ pub fn cholesky_start(c: &DMatrix<f64>) -> DMatrix<f64> {
         vectors.set_column(k, &column);
         factors.push(r);
     }
-    orthonormal_completion(factors, n)
-}
-
-/// Gram–Schmidt (twice) of `vectors`, completed with unit vectors to n columns.
-fn orthonormal_completion(vectors: Vec<DVector<f64>>, n: usize) -> DMatrix<f64> {
-    let mut basis: Vec<DVector<f64>> = Vec::with_capacity(n);
-    let units = (0..n).map(|k| {
-        let mut e = DVector::zeros(n);
-        e[k] = 1.0;
-        e
-    });
-    for mut v in vectors.into_iter().chain(units) {
-        if basis.len() == n {
-            break;
-        }
-        for _ in 0..2 {
-            for w in &basis {
-                let p = w.dot(&v);
-                v.axpy(-p, w, 1.0);
-            }
-        }
-        let norm = v.norm();
-        if norm > 1e-8 {
-            basis.push(v / norm);
-        }
-    }
-    if basis.len() < n {
-        return DMatrix::identity(n, n);
-    }
-    DMatrix::from_columns(&basis)
+    super::orthonormal::completed_basis(factors, n).unwrap_or_else(|| DMatrix::identity(n, n))
 }
 
 #[cfg(test)]

@@ -11,7 +11,7 @@
 
 use std::ops::Range;
 
-use nalgebra::{DMatrix, DVectorView, SymmetricEigen};
+use nalgebra::{DMatrix, DVector, DVectorView, SymmetricEigen};
 
 use crate::chem::ao::AngularKind;
 use crate::eht::EhtResult;
@@ -104,6 +104,41 @@ pub fn to_orthonormal(
     coefficients: &DMatrix<f64>,
 ) -> DMatrix<f64> {
     overlap * (orthogonalizer * coefficients)
+}
+
+/// Gram–Schmidt (twice, for numerical orthogonality) of `v` against the orthonormal
+/// `basis`; `v` is appended, normalized, when its norm stays above `floor` times its
+/// starting norm. Returns whether it was appended.
+pub fn push_orthonormal(basis: &mut Vec<DVector<f64>>, mut v: DVector<f64>, floor: f64) -> bool {
+    let start = v.norm();
+    if start <= 1e-12 {
+        return false;
+    }
+    for _ in 0..2 {
+        for w in basis.iter() {
+            let p = w.dot(&v);
+            v.axpy(-p, w, 1.0);
+        }
+    }
+    let norm = v.norm();
+    let kept = norm > floor * start;
+    if kept {
+        basis.push(v / norm);
+    }
+    kept
+}
+
+/// The orthonormal `vectors` completed with unit vectors to an n × n orthonormal matrix.
+pub fn completed_basis(vectors: Vec<DVector<f64>>, n: usize) -> Option<DMatrix<f64>> {
+    let mut basis: Vec<DVector<f64>> = Vec::with_capacity(n);
+    let units = (0..n).map(|k| DVector::from_fn(n, |r, _| f64::from(u8::from(r == k))));
+    for v in vectors.into_iter().chain(units) {
+        if basis.len() == n {
+            break;
+        }
+        push_orthonormal(&mut basis, v, 1e-8);
+    }
+    (basis.len() == n).then(|| DMatrix::from_columns(&basis))
 }
 
 /// Wiberg bond indices W_AB (atoms × atoms, zero diagonal) from the MOs over the
