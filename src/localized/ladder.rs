@@ -112,13 +112,9 @@ pub fn build(
         let (energies, coefficients) = solve_unit(&unit_pieces, hamiltonian, layout);
         let mut remaining = electrons;
         for (rank, (&energy, vector)) in energies.iter().zip(&coefficients).enumerate() {
-            // The rounding residue of the summed occupancies (1e-15) is no electron: it
-            // would draw an empty level as occupied.
-            let lewis_occupancy = if remaining < super::OCCUPATION_TOLERANCE {
-                0.0
-            } else {
-                remaining.clamp(0.0, 2.0)
-            };
+            // `electrons` is rounded at 1e-9 above, so no rounding residue (1e-15) is left to
+            // draw an empty level as occupied.
+            let lewis_occupancy = remaining.clamp(0.0, 2.0);
             remaining -= lewis_occupancy;
             let (kind, label) = naming.level(rank, energies.len(), lewis_occupancy);
             levels.push(LadderLevel {
