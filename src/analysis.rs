@@ -7,10 +7,14 @@ use serde::{Deserialize, Serialize};
 use thiserror::Error;
 
 mod stages;
+mod switch;
+
+pub use switch::{HeldLevel, LonePairChoice, SwitchSummary};
 
 use crate::chem::molecule::{Molecule, MoleculeError};
 use crate::eht::{self, EhtResult, EhtSettings};
 use crate::hybrid::{HybridAnalysis, HybridKind, HybridModel, HybridSettings};
+use crate::localized::held::{HeldLonePairs, HoldConvention};
 use crate::localized::{LocalizationSettings, LocalizedKind, LocalizedPicture};
 use crate::symmetry::{self, Symmetry, SymmetrySettings, SymmetrySummary};
 
@@ -21,6 +25,10 @@ use crate::symmetry::{self, Symmetry, SymmetrySettings, SymmetrySummary};
 pub struct Settings {
     /// Lone-pair mixing switch (DESIGN §4.6): on = full solution.
     pub lone_pair_mixing: bool,
+    /// Which lone pairs the switch holds when mixing is off.
+    pub held_lone_pairs: HeldLonePairs,
+    /// Whether the held orbital is the centre's p orbital or the lone-pair hybrid.
+    pub hold_convention: HoldConvention,
     /// Point-group tolerance, axis and numbering conventions.
     pub symmetry: SymmetrySettings,
     /// Extended Hückel options (K, weighting, parameter overrides).
@@ -35,6 +43,8 @@ impl Default for Settings {
     fn default() -> Self {
         Settings {
             lone_pair_mixing: true,
+            held_lone_pairs: HeldLonePairs::default(),
+            hold_convention: HoldConvention::default(),
             symmetry: SymmetrySettings::default(),
             eht: EhtSettings::default(),
             hybrid: HybridSettings::default(),
@@ -204,6 +214,9 @@ pub struct Analysis {
     /// Per canonical orbital: energy in the other state of the lone-pair mixing switch
     /// minus its energy here (eV); empty when there is no lone pair.
     pub level_shifts: Vec<f64>,
+    /// What the lone-pair switch holds and how its levels move (None when the localized
+    /// picture is missing).
+    pub lone_pair_switch: Option<SwitchSummary>,
     pub errors: Vec<StageError>,
     /// Remarks of the stages, shown beside their results.
     pub notes: Vec<StageNote>,
@@ -242,33 +255,46 @@ impl Analysis {
         let model = settings.hybrid.model;
         let hybrid_entries =
             stages::hybrid_entries(molecule, picture.as_ref(), hybrids.as_ref(), model);
+        let (mut localized, ladder_vectors) = match (&eht, &picture) {
+            (Some(solution), Some(found)) => {
+                stages::ladder(molecule, solution, found, hybrids.as_ref(), model)
+            }
+            _ => (Vec::new(), nalgebra::DMatrix::zeros(0, 0)),
+        };
         let mut level_shifts = Vec::new();
-        if let Some(solution) = eht.as_mut() {
-            let mixing = settings.lone_pair_mixing;
-            match stages::apply_lone_pair_switch(solution, &hybrid_entries, mixing) {
-                Ok(shifts) => level_shifts = shifts,
+        let mut lone_pair_switch = None;
+        if let (Some(solution), Some(found)) = (eht.as_mut(), &picture) {
+            let request = switch::SwitchRequest {
+                mixing: settings.lone_pair_mixing,
+                selection: &settings.held_lone_pairs,
+                convention: settings.hold_convention,
+            };
+            match switch::apply(solution, found, &localized, &ladder_vectors, request) {
+                Ok(outcome) => {
+                    level_shifts = outcome.shifts;
+                    log.notes(Stage::Orbitals, &outcome.notes);
+                    lone_pair_switch = Some(outcome.summary);
+                }
                 Err(message) => log.fail(Stage::Orbitals, message),
             }
+        }
+        if let (Some(found), Some(solution)) = (&symmetry, eht.as_mut()) {
+            adapt_degenerate_sets(found, solution);
         }
         let mut orbitals = eht.as_ref().map(orbital_summaries).unwrap_or_default();
         if let (Some(found), Some(solution)) = (&symmetry, &eht) {
             label_summaries(&mut orbitals, found, molecule, solution, settings);
         }
-        let (localized, links) = match (&eht, &picture) {
-            (Some(solution), Some(found)) => {
-                let chosen = hybrids.as_ref();
-                stages::ladder_and_links(
-                    molecule, solution, found, chosen, model, &orbitals, &mut log,
-                )
-            }
-            _ => (Vec::new(), Vec::new()),
+        let links = match &eht {
+            Some(solution) => stages::ladder_links(
+                solution,
+                &orbitals,
+                &ladder_vectors,
+                &mut localized,
+                &mut log,
+            ),
+            None => Vec::new(),
         };
-        if !settings.lone_pair_mixing && !level_shifts.is_empty() {
-            log.note(
-                Stage::Links,
-                "lone-pair mixing is off: the canonical MOs are the held first-order solution, so the localized ladder's occupancies and weights are taken against it and are approximate",
-            );
-        }
         Ok(Analysis {
             molecule: molecule.clone(),
             settings: settings.clone(),
@@ -289,9 +315,33 @@ impl Analysis {
             localized,
             links,
             level_shifts,
+            lone_pair_switch,
             errors: log.errors,
             notes: log.notes,
         })
+    }
+}
+
+/// Rotates exactly degenerate sets of MOs that carry several irreps so each MO carries one
+/// (held lone pairs at one atomic energy, say), in both coefficient matrices.
+fn adapt_degenerate_sets(found: &Symmetry, solution: &mut EhtResult) {
+    let rotations = symmetry::degenerate_set_rotations(
+        found,
+        &solution.basis.orbitals,
+        &solution.overlap,
+        &solution.coefficients,
+        &solution.energies,
+    );
+    for set in rotations {
+        for matrix in [
+            &mut solution.coefficients,
+            &mut solution.orthonormal.coefficients,
+        ] {
+            let block = matrix.select_columns(&set.members) * &set.rotation;
+            for (c, &member) in set.members.iter().enumerate() {
+                matrix.set_column(member, &block.column(c));
+            }
+        }
     }
 }
 

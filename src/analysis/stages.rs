@@ -1,19 +1,17 @@
 //! The stages of `Analysis::run` after the extended Hückel solution and the localized
-//! picture: the hybrid model of the settings (DESIGN §4.4), the lone-pair mixing switch
-//! (§4.6), the localized ladder and the canonical ↔ localized weights (§4.6).
+//! picture: the hybrid model of the settings (DESIGN §4.4), the localized ladder and the
+//! canonical ↔ localized weights (§4.6). The lone-pair switch is in `switch`.
 
-use nalgebra::{DMatrix, DVector};
+use nalgebra::DMatrix;
 
 use super::{
     HybridEntry, LinkSummary, LocalizedSummary, OrbitalSummary, Stage, StageError, StageNote,
 };
-use crate::chem::ao::AngularKind;
 use crate::chem::molecule::Molecule;
 use crate::eht::EhtResult;
-use crate::hybrid::{self, HybridAnalysis, HybridKind, HybridModel, HybridSettings};
-use crate::localized::switch::compare_mixing;
+use crate::hybrid::{self, HybridAnalysis, HybridModel, HybridSettings};
 use crate::localized::weights::{LevelSets, Metric, link};
-use crate::localized::{LocalizedPicture, ladder, orthonormal};
+use crate::localized::{LocalizedPicture, ladder};
 
 /// Weights below this are left out of the link list (DESIGN §4.6: entries above 1e-4).
 const LINK_LIST_THRESHOLD: f64 = 1e-4;
@@ -154,87 +152,9 @@ pub(super) fn hybrid_entries(
     entries
 }
 
-/// Each lone pair's atomic orbital: the centre's p orbital along the lone-pair hybrid's
-/// direction, as a vector over the whole basis. A direction (nearly) in the span of the
-/// same centre's earlier ones is left out: a centre has only three p orbitals to hold
-/// (F⁻ in KF has four lone pairs).
-fn lone_pair_orbitals(eht: &EhtResult, entries: &[HybridEntry]) -> Vec<DVector<f64>> {
-    let mut vectors = Vec::new();
-    let mut held: Vec<(usize, nalgebra::Vector3<f64>)> = Vec::new();
-    for entry in entries.iter().filter(|e| e.kind == HybridKind::LonePair) {
-        let mut direction = nalgebra::Vector3::from(entry.direction);
-        for (_, earlier) in held.iter().filter(|(atom, _)| *atom == entry.center) {
-            direction -= earlier * earlier.dot(&direction);
-        }
-        if direction.norm() < 0.3 {
-            continue;
-        }
-        held.push((entry.center, direction.normalize()));
-        let Some(range) = eht.basis.atom_ranges.get(entry.center) else {
-            continue;
-        };
-        let mut vector = DVector::zeros(eht.basis.len());
-        for mu in range.clone() {
-            vector[mu] = match eht.basis.orbitals[mu].kind {
-                AngularKind::Px => entry.direction[0],
-                AngularKind::Py => entry.direction[1],
-                AngularKind::Pz => entry.direction[2],
-                _ => 0.0,
-            };
-        }
-        if vector.norm() > 1e-8 {
-            vectors.push(vector.normalize());
-        }
-    }
-    vectors
-}
-
-/// Computes both states of the switch. With mixing off, `eht`'s orbitals are replaced by
-/// the held-non-bonding solution (populations stay those of the full solution). Returns,
-/// per orbital shown, the energy in the other state minus the energy shown.
-pub(super) fn apply_lone_pair_switch(
-    eht: &mut EhtResult,
-    entries: &[HybridEntry],
-    mixing_on: bool,
-) -> Result<Vec<f64>, String> {
-    let lone_pairs = lone_pair_orbitals(eht, entries);
-    if lone_pairs.is_empty() {
-        return Ok(Vec::new());
-    }
-    let comparison =
-        compare_mixing(eht, &lone_pairs).map_err(|e| format!("lone-pair switch: {e}"))?;
-    let count = comparison.shifts.len();
-    if mixing_on {
-        let mut shifts = vec![0.0; count];
-        for (off, &on) in comparison.off_to_on.iter().enumerate() {
-            if let Some(slot) = shifts.get_mut(on) {
-                *slot = -comparison.shifts[off];
-            }
-        }
-        return Ok(shifts);
-    }
-    let off = comparison.off.solution;
-    eht.energies = off.energies;
-    eht.coefficients = off.coefficients;
-    eht.occupations = off.occupations;
-    eht.open_shell = off.open_shell;
-    eht.orthonormal.coefficients = orthonormal::to_orthonormal(
-        &eht.overlap,
-        &eht.orthonormal.orthogonalizer,
-        &eht.coefficients,
-    );
-    eht.sum_occupied_energy = eht
-        .energies
-        .iter()
-        .zip(&eht.occupations)
-        .map(|(e, n)| e * n)
-        .sum();
-    Ok(comparison.shifts)
-}
-
 /// The localized ladder on the hybrids of the chosen model, as summaries (AO
 /// coefficients for maps) and as vectors over the orthonormal basis.
-fn ladder(
+pub(super) fn ladder(
     molecule: &Molecule,
     eht: &EhtResult,
     picture: &LocalizedPicture,
@@ -251,6 +171,7 @@ fn ladder(
         &picture.units,
         &picture.layout,
         &eht.orthonormal.hamiltonian,
+        &atomic_energies(eht),
         molecule,
     );
     let ao = &eht.orthonormal.orthogonalizer * &built.vectors;
@@ -272,27 +193,30 @@ fn ladder(
     (summaries, built.vectors)
 }
 
-/// The ladder on the chosen model's hybrids and its weights in the canonical MOs (a
-/// failure of the weights is logged; the ladder is kept).
-#[allow(clippy::too_many_arguments)]
-pub(super) fn ladder_and_links(
-    molecule: &Molecule,
+/// The weights of the ladder in the canonical MOs shown (a failure is logged; the ladder
+/// is kept).
+pub(super) fn ladder_links(
     eht: &EhtResult,
-    picture: &LocalizedPicture,
-    hybrids: Option<&HybridAnalysis>,
-    model: HybridModel,
     orbitals: &[OrbitalSummary],
+    vectors: &DMatrix<f64>,
+    localized: &mut [LocalizedSummary],
     log: &mut Log,
-) -> (Vec<LocalizedSummary>, Vec<LinkSummary>) {
-    let (mut localized, vectors) = ladder(molecule, eht, picture, hybrids, model);
-    let links = match links(eht, orbitals, &vectors, &mut localized) {
+) -> Vec<LinkSummary> {
+    match links(eht, orbitals, vectors, localized) {
         Ok(found) => found,
         Err(message) => {
             log.fail(Stage::Links, message);
             Vec::new()
         }
-    };
-    (localized, links)
+    }
+}
+
+/// α of each basis function: the diagonal of the extended Hückel H (the valence orbital
+/// energies of the parameters).
+pub(super) fn atomic_energies(eht: &EhtResult) -> Vec<f64> {
+    (0..eht.hamiltonian.nrows())
+        .map(|mu| eht.hamiltonian[(mu, mu)])
+        .collect()
 }
 
 /// Degenerate-set ids of the canonical orbitals: same label (same irrep level) or, with

@@ -7,6 +7,7 @@ mod output;
 mod report;
 mod scan;
 
+use diptych::localized::held::{HeldLonePairs, HoldConvention};
 use std::io::Write;
 use std::path::{Path, PathBuf};
 use std::process::ExitCode;
@@ -97,16 +98,52 @@ impl From<ModelArg> for diptych::hybrid::HybridModel {
     }
 }
 
+/// What the lone-pair switch holds (DESIGN §4.6).
+#[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
+enum HoldConventionArg {
+    /// The centre's p orbital along each held lone pair (the hand-drawn diagram).
+    FirstOrder,
+    /// The lone-pair hybrid itself (its level then equals the localized ladder's).
+    Hybrid,
+}
+
+/// `central`, `all` or atom numbers as the reports print them (from 0), comma-separated.
+fn parse_held_lone_pairs(text: &str) -> Result<HeldLonePairs, String> {
+    match text.trim() {
+        "central" => Ok(HeldLonePairs::Central),
+        "all" => Ok(HeldLonePairs::All),
+        list => list
+            .split(',')
+            .map(|item| {
+                item.trim().parse::<usize>().map_err(|_| {
+                    format!(
+                        "'{}' is not central, all or an atom number (from 0)",
+                        item.trim()
+                    )
+                })
+            })
+            .collect::<Result<Vec<usize>, String>>()
+            .map(HeldLonePairs::Atoms),
+    }
+}
+
 /// The charge and method choices every analysing subcommand takes, applied over the
 /// file's (or project's) own values.
-#[derive(Args, Clone, Copy, Debug, Default)]
+#[derive(Args, Clone, Debug, Default)]
 pub(super) struct MethodArgs {
     /// Net charge of the molecule (overrides the file's).
     #[arg(long, allow_hyphen_values = true)]
     pub(super) charge: Option<i32>,
-    /// Hold each lone pair's p orbital non-bonding (the first-order diagram).
+    /// Hold lone pairs non-bonding (the first-order diagram).
     #[arg(long)]
     no_lone_pair_mixing: bool,
+    /// Which lone pairs are held with mixing off: central (atoms with two or more bonded
+    /// partners, the default), all, or atom numbers as the reports print them (from 0).
+    #[arg(long, value_name = "central|all|ATOM,...", value_parser = parse_held_lone_pairs)]
+    hold_lone_pairs: Option<HeldLonePairs>,
+    /// What is held: the centre's p orbital along the lone pair, or the lone-pair hybrid.
+    #[arg(long, value_enum)]
+    hold_convention: Option<HoldConventionArg>,
     /// Hybrid model for the localized picture.
     #[arg(long, value_enum)]
     model: Option<ModelArg>,
@@ -119,6 +156,15 @@ impl MethodArgs {
     pub(super) fn apply(&self, settings: &mut Settings) {
         if self.no_lone_pair_mixing {
             settings.lone_pair_mixing = false;
+        }
+        if let Some(held) = &self.hold_lone_pairs {
+            settings.held_lone_pairs = held.clone();
+        }
+        if let Some(convention) = self.hold_convention {
+            settings.hold_convention = match convention {
+                HoldConventionArg::FirstOrder => HoldConvention::FirstOrder,
+                HoldConventionArg::Hybrid => HoldConvention::Hybrid,
+            };
         }
         if let Some(model) = self.model {
             settings.hybrid.model = model.into();

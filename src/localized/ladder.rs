@@ -8,8 +8,10 @@
 //! orbitals reach); the levels of a unit are the eigenvectors of H̃ in its hybrids — the
 //! 2×2 problem of a two-centre bond (σ below, σ* above: the textbook bond-orbital
 //! construction, Coulson, *Valence*, 1952), the n×n problem of a multicentre unit (our
-//! choice, stated in the README), the hybrid's own energy ⟨h|H̃|h⟩ for a lone pair or a
-//! vacant orbital. So the levels are one orthonormal basis of the valence space: their
+//! choice, stated in the README), and for a lone pair, a radical's orbital or a vacant
+//! orbital its atomic energy Σ_μ h_μ² α_μ, (α_s + λ α_p)/(1 + λ) for an sp^λ hybrid (the
+//! textbook hybrid energy; Löwdin's ⟨h|H̃|h⟩ is not an atomic energy in extended Hückel's
+//! strongly overlapping basis, see [`super::switch`]). So the levels are one orthonormal basis of the valence space: their
 //! occupancies in the canonical density add up to the electron count, and the weights
 //! between them and the canonical MOs add to 1 both ways.
 //!
@@ -71,7 +73,7 @@ pub struct LadderLevel {
     /// "σ(N–H)", "n(N)", "3c(B–H–B)".
     pub label: String,
     pub atoms: Vec<usize>,
-    /// ⟨b|H̃|b⟩, eV.
+    /// The unit's eigenvalue of H̃ (the atomic energy for a one-centre level), eV.
     pub energy_ev: f64,
     /// Electrons the Lewis structure puts here (2, 1, 0 or a share of an open shell).
     pub lewis_occupancy: f64,
@@ -99,6 +101,7 @@ pub fn build(
     units: &[ThreeCentreUnit],
     layout: &AtomLayout,
     hamiltonian: &DMatrix<f64>,
+    atomic: &[f64],
     molecule: &Molecule,
 ) -> Ladder {
     let (pieces, groups) = unit_pieces(hybrids, orbitals, layout);
@@ -109,7 +112,13 @@ pub fn build(
         let electrons =
             super::lewis::rounded(lo_members.iter().map(|&k| orbitals[k].occupancy).sum());
         let naming = Naming::of(&unit_pieces, lo_members, orbitals, units, hybrids, molecule);
-        let (energies, coefficients) = solve_unit(&unit_pieces, hamiltonian, layout);
+        let (mut energies, coefficients) = solve_unit(&unit_pieces, hamiltonian, layout);
+        if let ([piece], [energy], [vector]) =
+            (&unit_pieces[..], &mut energies[..], &coefficients[..])
+        {
+            // A one-centre level (lone pair, radical, vacant orbital) at its atomic energy.
+            *energy = super::held::atomic_energy(&dense(&[*piece], vector, layout), atomic);
+        }
         let mut remaining = electrons;
         for (rank, (&energy, vector)) in energies.iter().zip(&coefficients).enumerate() {
             // `electrons` is rounded at 1e-9 above, so no rounding residue (1e-15) is left to

@@ -12,18 +12,21 @@
 //! 4. [`hybrids`]: the hybrids of each atom read from those orbitals (the default model),
 //!    and the one reader of a hybrid's shape for every model.
 //! 5. [`ladder`]: the levels of the localized ladder from the hybrids; [`weights`]: their
-//!    weights in the canonical MOs; [`switch`]: the lone-pair mixing switch.
+//!    weights in the canonical MOs; [`held`] and [`switch`]: the lone-pair mixing switch
+//!    (what is held, and the levels with it held), [`pairing`]: levels of two states paired.
 //!
 //! [`analyze`] runs 1–4 for an extended Hückel result; the ladder is built by
 //! `Analysis::run` after the hybrid model of the settings has been applied.
 
 pub mod classify;
+pub mod held;
 pub mod hybrids;
 pub mod ladder;
 pub mod lewis;
 pub mod localize;
 mod notes;
 pub mod orthonormal;
+pub mod pairing;
 pub mod switch;
 pub mod weights;
 

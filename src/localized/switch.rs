@@ -1,447 +1,248 @@
-//! The lone-pair mixing switch (DESIGN §4.6). With mixing off, each lone pair's atomic
-//! orbital — a combination of its centre's valence functions along the lone-pair
-//! direction — is held non-bonding: the centre's one-centre block of the basis is rotated so
-//! that the lone-pair orbital is a basis function (the rest of the block is completed by
-//! Gram–Schmidt in the S metric; one-centre s, p, d Slater functions are orthonormal, so
-//! the rotation is orthogonal), its elements of H and S to every other function are set to
-//! zero (its diagonal ⟨l|H|l⟩ = the hybrid energy (ε_s + λ ε_p)/(1 + λ) is kept), the
-//! generalized eigenproblem is solved again (`eht::solve`) and the coefficients are
-//! transformed back to the original AO basis. This is the first-order diagram one draws by
-//! hand; with mixing on, the ordinary solution. (The held MOs are orthonormal in the
-//! modified overlap, with l's elements zeroed, not in the original S.) Levels of the two solutions are paired by
-//! the largest total squared overlap |ψ_offᵀ S ψ_on|² (an optimal assignment, the
-//! Hungarian method: H. W. Kuhn, Naval Res. Logist. Q. 2, 83 (1955)), so labels carry over.
+//! The lone-pair mixing switch (DESIGN §4.6), in the orthonormal atomic basis.
+//!
+//! With mixing off, the held orbitals (see [`super::held`]) span a space with projector
+//! P = Σ |l⟩⟨l|, Q = 1 − P, and the Hamiltonian is P A P + Q H̃ Q: the held space keeps
+//! the free atoms' Hamiltonian A (each held orbital its atomic energy, held orbitals on
+//! different atoms uncoupled), the rest mixes freely under H̃. The two blocks are solved
+//! apart, so each held level is an exact eigenvector even when it is degenerate with
+//! another level. We use A rather than P H̃ P because Löwdin's H̃ does not keep atomic
+//! energies in extended Hückel's strongly overlapping basis: in ammonia its diagonal is
+//! −8.98 eV for N 2s and −11.67 eV for N 2p along the axis (the parameters: −26.0 and
+//! −13.4 eV), and a non-bonding orbital of the hand-drawn diagram sits at its atomic
+//! level. Occupations: the held levels occupied with mixing on (⟨l|P_on|l⟩ > 1) keep two
+//! electrons; the others are filled by aufbau; a note says when plain aufbau would fill
+//! differently. Levels of the two states are paired by the largest total squared overlap
+//! ([`super::pairing`]).
 
-use std::ops::Range;
-
-use nalgebra::{DMatrix, DVector};
-use serde::{Deserialize, Serialize};
+use nalgebra::{DMatrix, DVector, SymmetricEigen};
 use thiserror::Error;
 
-use crate::eht::{EhtError, EhtResult, Solution, solve};
-
-/// A lone-pair function whose remaining norm after Gram–Schmidt is below this is
-/// linearly dependent on the earlier ones.
-const DEPENDENCE_THRESHOLD: f64 = 1e-8;
+use super::held::HeldOrbital;
+use super::orthonormal::completed_basis;
+use super::pairing::match_levels;
+use crate::eht::aufbau;
 
 /// Errors of the lone-pair switch.
 #[derive(Debug, Clone, PartialEq, Error)]
 pub enum MixingError {
-    #[error("lone pair {index} has {got} coefficients for a basis of {expected}")]
-    Length {
-        index: usize,
-        got: usize,
-        expected: usize,
+    #[error("the Hamiltonian is {rows}×{cols} but the canonical MOs have {basis} rows")]
+    Shape {
+        rows: usize,
+        cols: usize,
+        basis: usize,
     },
-    #[error("lone pair {index} is zero or not finite")]
-    Empty { index: usize },
-    #[error("lone pair {index} has coefficients on more than one atom ({first} and {second})")]
-    SeveralAtoms {
-        index: usize,
-        first: usize,
-        second: usize,
-    },
-    #[error("lone pair {index} lies in the span of the earlier lone pairs of atom {atom}")]
-    Dependent { index: usize, atom: usize },
-    #[error("the atom ranges do not cover the basis of {basis} functions")]
-    Ranges { basis: usize },
-    #[error("re-solving with the lone pairs held non-bonding failed: {0}")]
-    Solve(#[from] EhtError),
+    #[error("the held orbitals are not orthonormal (largest deviation {deviation:.1e})")]
+    NotOrthonormal { deviation: f64 },
+    #[error("{electrons} electrons do not fit in {levels} levels")]
+    Electrons { electrons: usize, levels: usize },
+    #[error("the Hamiltonian contains a non-finite number")]
+    NonFinite,
 }
 
-/// The solution with the lone pairs held non-bonding, in the original AO basis.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-pub struct HeldSolution {
-    pub solution: Solution,
-    /// Basis index (after the rotation) of each lone-pair function: the lone pair becomes
-    /// basis function `lone_pair_functions[i]` of the rotated basis.
-    pub lone_pair_functions: Vec<usize>,
-    /// ⟨l|H|l⟩ of each (orthonormalized) lone-pair orbital, eV.
-    pub lone_pair_energies: Vec<f64>,
-    /// The orthonormalized lone-pair orbitals over the original basis (columns).
-    pub lone_pair_orbitals: DMatrix<f64>,
+/// The canonical state with mixing on, over the orthonormal basis.
+#[derive(Clone, Copy, Debug)]
+pub struct MixedState<'a> {
+    pub hamiltonian: &'a DMatrix<f64>,
+    /// Columns: the canonical MOs.
+    pub coefficients: &'a DMatrix<f64>,
+    pub energies: &'a [f64],
+    pub occupations: &'a [f64],
+    pub electrons: usize,
 }
 
-/// Both level sets of the switch and how they pair up.
-#[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-pub struct MixingComparison {
-    /// Mixing on: the ordinary solution.
-    pub on: Solution,
-    /// Mixing off: the lone pairs held non-bonding.
-    pub off: HeldSolution,
-    /// For each off level j, the on level it is paired with.
-    pub off_to_on: Vec<usize>,
-    /// |ψ_offᵀ S ψ_on| of each pair.
-    pub pair_overlaps: Vec<f64>,
-    /// Shift of each off level when mixing is switched on: ε_on(pair) − ε_off (eV).
+/// The levels with the held orbitals non-bonding, and how they pair with the mixed ones.
+#[derive(Clone, Debug, PartialEq)]
+pub struct HeldState {
+    /// Ascending, eV.
+    pub energies: Vec<f64>,
+    /// Columns over the orthonormal basis.
+    pub coefficients: DMatrix<f64>,
+    pub occupations: Vec<f64>,
+    pub open_shell: bool,
+    /// The held levels (indices into `energies`).
+    pub held_levels: Vec<usize>,
+    /// For each level here, the mixed level it pairs with.
+    pub paired: Vec<usize>,
+    /// ε(mixed partner) − ε(here), eV.
     pub shifts: Vec<f64>,
+    pub notes: Vec<String>,
 }
 
-/// Solves HC = SCE with each lone-pair orbital held non-bonding (see the module doc).
-/// `lone_pairs` are vectors over the full basis, non-zero on one atom only; several on the
-/// same atom are orthonormalized in the given order.
-pub fn hold_non_bonding(
-    h: &DMatrix<f64>,
-    s: &DMatrix<f64>,
-    atom_ranges: &[Range<usize>],
-    lone_pairs: &[DVector<f64>],
-    electrons: usize,
-) -> Result<HeldSolution, MixingError> {
-    let n = check_shapes(h, s, atom_ranges)?;
-    let atoms = lone_pair_atoms(lone_pairs, atom_ranges, n)?;
-    let rotation = Rotation::build(s, atom_ranges, lone_pairs, &atoms)?;
-    let functions = rotation.functions();
-    let mut h_t = rotation.t.transpose() * h * &rotation.t;
-    let mut s_t = rotation.t.transpose() * s * &rotation.t;
-    for &p in &functions {
-        for q in (0..n).filter(|&q| q != p) {
-            h_t[(p, q)] = 0.0;
-            h_t[(q, p)] = 0.0;
-            s_t[(p, q)] = 0.0;
-            s_t[(q, p)] = 0.0;
-        }
+/// Solves P A P + Q H̃ Q (see the module doc); `atomic` is α of each basis function.
+pub fn hold(
+    mixed: MixedState<'_>,
+    held: &[HeldOrbital],
+    atomic: &[f64],
+) -> Result<HeldState, MixingError> {
+    let n = check(mixed, held)?;
+    if atomic.len() != n {
+        return Err(MixingError::Shape {
+            rows: atomic.len(),
+            cols: 1,
+            basis: n,
+        });
     }
-    let lone_pair_energies = functions
-        .iter()
-        .map(|&p| h_t[(p, p)] / s_t[(p, p)])
+    let held_basis = if held.is_empty() {
+        DMatrix::zeros(n, 0)
+    } else {
+        DMatrix::from_columns(&held.iter().map(|h| h.vector.clone()).collect::<Vec<_>>())
+    };
+    let free_basis = complement(&held_basis, n)?;
+    // ⟨l_i|A|l_j⟩ = Σ_μ l_iμ l_jμ α_μ: zero between atoms, the atomic energies on the
+    // diagonal.
+    let alpha = DMatrix::from_diagonal(&DVector::from_column_slice(atomic));
+    let held_block = held_basis.transpose() * alpha * &held_basis;
+    let free_block = free_basis.transpose() * mixed.hamiltonian * &free_basis;
+    let (held_energies, held_vectors) = solve_block(&held_block, &held_basis);
+    let (free_energies, free_vectors) = solve_block(&free_block, &free_basis);
+    let mut levels: Vec<(f64, bool, DVector<f64>)> = held_energies
+        .into_iter()
+        .zip(held_vectors)
+        .map(|(e, v)| (e, true, v))
+        .chain(
+            free_energies
+                .into_iter()
+                .zip(free_vectors)
+                .map(|(e, v)| (e, false, v)),
+        )
         .collect();
-    let mut solution = solve(&h_t, &s_t, electrons)?;
-    solution.coefficients = &rotation.t * &solution.coefficients;
-    Ok(HeldSolution {
-        solution,
-        lone_pair_functions: functions,
-        lone_pair_energies,
-        lone_pair_orbitals: rotation.orbitals,
+    levels.sort_by(|a, b| a.0.total_cmp(&b.0).then(b.1.cmp(&a.1)));
+    let energies: Vec<f64> = levels.iter().map(|l| l.0).collect();
+    let held_levels: Vec<usize> = (0..levels.len()).filter(|&k| levels[k].1).collect();
+    let coefficients = DMatrix::from_columns(&levels.into_iter().map(|l| l.2).collect::<Vec<_>>());
+    let (occupations, open_shell, notes) = occupy(mixed, &energies, &coefficients, &held_levels);
+    let overlaps = (coefficients.transpose() * mixed.coefficients).map(f64::abs);
+    let paired = match_levels(&overlaps);
+    let shifts = paired
+        .iter()
+        .enumerate()
+        .map(|(k, &on)| mixed.energies.get(on).map_or(0.0, |e| e - energies[k]))
+        .collect();
+    Ok(HeldState {
+        energies,
+        coefficients,
+        occupations,
+        open_shell,
+        held_levels,
+        paired,
+        shifts,
+        notes,
     })
 }
 
-/// The basis size, when H, S and the atom ranges agree.
-fn check_shapes(
-    h: &DMatrix<f64>,
-    s: &DMatrix<f64>,
-    atom_ranges: &[Range<usize>],
-) -> Result<usize, MixingError> {
-    let n = s.nrows();
-    if n == 0 || s.ncols() != n || h.nrows() != n || h.ncols() != n {
-        return Err(MixingError::Solve(EhtError::DimensionMismatch {
-            h: (h.nrows(), h.ncols()),
-            s: (s.nrows(), s.ncols()),
-        }));
+/// The basis size, once the shapes agree and the held orbitals are orthonormal.
+fn check(mixed: MixedState<'_>, held: &[HeldOrbital]) -> Result<usize, MixingError> {
+    let h = mixed.hamiltonian;
+    let n = mixed.coefficients.nrows();
+    if h.nrows() != n || h.ncols() != n || mixed.energies.len() != mixed.coefficients.ncols() {
+        return Err(MixingError::Shape {
+            rows: h.nrows(),
+            cols: h.ncols(),
+            basis: n,
+        });
     }
-    if atom_ranges.iter().map(|r| r.len()).sum::<usize>() != n
-        || atom_ranges.iter().any(|r| r.end > n)
-    {
-        return Err(MixingError::Ranges { basis: n });
+    if h.iter().any(|x| !x.is_finite()) {
+        return Err(MixingError::NonFinite);
+    }
+    if mixed.electrons > 2 * n {
+        return Err(MixingError::Electrons {
+            electrons: mixed.electrons,
+            levels: n,
+        });
+    }
+    let mut deviation: f64 = 0.0;
+    for (i, a) in held.iter().enumerate() {
+        if a.vector.len() != n {
+            return Err(MixingError::Shape {
+                rows: a.vector.len(),
+                cols: 1,
+                basis: n,
+            });
+        }
+        for b in &held[i..] {
+            let expected = if std::ptr::eq(a, b) { 1.0 } else { 0.0 };
+            deviation = deviation.max((a.vector.dot(&b.vector) - expected).abs());
+        }
+    }
+    if deviation > 1e-8 || !deviation.is_finite() {
+        return Err(MixingError::NotOrthonormal { deviation });
     }
     Ok(n)
 }
 
-/// The atom of each lone pair (its only atom with coefficients).
-fn lone_pair_atoms(
-    lone_pairs: &[DVector<f64>],
-    atom_ranges: &[Range<usize>],
-    n: usize,
-) -> Result<Vec<usize>, MixingError> {
-    let mut atoms = Vec::with_capacity(lone_pairs.len());
-    for (index, lp) in lone_pairs.iter().enumerate() {
-        if lp.len() != n {
-            return Err(MixingError::Length {
-                index,
-                got: lp.len(),
-                expected: n,
-            });
-        }
-        if lp.iter().any(|x| !x.is_finite()) || lp.amax() == 0.0 {
-            return Err(MixingError::Empty { index });
-        }
-        let scale = lp.amax();
-        let mut found: Option<usize> = None;
-        for (atom, range) in atom_ranges.iter().enumerate() {
-            if range.clone().any(|mu| lp[mu].abs() > 1e-12 * scale) {
-                if let Some(first) = found {
-                    return Err(MixingError::SeveralAtoms {
-                        index,
-                        first,
-                        second: atom,
-                    });
-                }
-                found = Some(atom);
-            }
-        }
-        atoms.push(found.ok_or(MixingError::Empty { index })?);
-    }
-    Ok(atoms)
+/// An orthonormal basis of the complement of the held columns (n × (n − k)).
+fn complement(held_basis: &DMatrix<f64>, n: usize) -> Result<DMatrix<f64>, MixingError> {
+    let vectors: Vec<DVector<f64>> = held_basis.column_iter().map(|c| c.into_owned()).collect();
+    let k = vectors.len();
+    let full = completed_basis(vectors, n).ok_or(MixingError::NotOrthonormal { deviation: 1.0 })?;
+    Ok(full.columns(k, n - k).into_owned())
 }
 
-/// The basis rotation T: identity except in the blocks of atoms with lone pairs, where the
-/// lone pairs come first and Gram–Schmidt (S metric) completes the block.
-struct Rotation {
-    t: DMatrix<f64>,
-    /// (lone pair, its function in the rotated basis).
-    held: Vec<(usize, usize)>,
-    /// The orthonormalized lone pairs over the original basis (columns).
-    orbitals: DMatrix<f64>,
-}
-
-impl Rotation {
-    fn build(
-        s: &DMatrix<f64>,
-        atom_ranges: &[Range<usize>],
-        lone_pairs: &[DVector<f64>],
-        atoms: &[usize],
-    ) -> Result<Rotation, MixingError> {
-        let n = s.nrows();
-        let mut rotation = Rotation {
-            t: DMatrix::identity(n, n),
-            held: Vec::new(),
-            orbitals: DMatrix::zeros(n, lone_pairs.len()),
-        };
-        for (atom, range) in atom_ranges.iter().enumerate() {
-            let mine: Vec<usize> = (0..lone_pairs.len())
-                .filter(|&i| atoms[i] == atom)
-                .collect();
-            if mine.is_empty() {
-                continue;
-            }
-            let block = s.view((range.start, range.start), (range.len(), range.len()));
-            let columns = block_basis(block, lone_pairs, &mine, range, atom)?;
-            for (c, column) in columns.iter().enumerate() {
-                for (r, &value) in column.iter().enumerate() {
-                    rotation.t[(range.start + r, range.start + c)] = value;
-                }
-            }
-            for (column, &i) in columns.iter().zip(&mine) {
-                let c = rotation
-                    .held
-                    .iter()
-                    .filter(|(_, f)| range.contains(f))
-                    .count();
-                rotation.held.push((i, range.start + c));
-                for (r, &value) in column.iter().enumerate() {
-                    rotation.orbitals[(range.start + r, i)] = value;
-                }
-            }
-        }
-        rotation.held.sort_unstable();
-        Ok(rotation)
+/// Eigenvalues (ascending) and eigenvectors, mapped back by `basis`, of one block.
+fn solve_block(block: &DMatrix<f64>, basis: &DMatrix<f64>) -> (Vec<f64>, Vec<DVector<f64>>) {
+    if block.nrows() == 0 {
+        return (Vec::new(), Vec::new());
     }
-
-    /// The held functions, in lone-pair order.
-    fn functions(&self) -> Vec<usize> {
-        self.held.iter().map(|&(_, f)| f).collect()
-    }
-}
-
-/// An S-orthonormal basis of one atom's block: its lone pairs first (in order), then the
-/// atom's functions to complete it.
-fn block_basis(
-    block: nalgebra::DMatrixView<'_, f64>,
-    lone_pairs: &[DVector<f64>],
-    mine: &[usize],
-    range: &Range<usize>,
-    atom: usize,
-) -> Result<Vec<DVector<f64>>, MixingError> {
-    let s_dot = |a: &DVector<f64>, b: &DVector<f64>| a.dot(&(block * b));
-    let push = |mut v: DVector<f64>, columns: &mut Vec<DVector<f64>>| -> bool {
-        // Twice, for numerical orthogonality.
-        for _ in 0..2 {
-            for c in columns.iter() {
-                let proj = s_dot(c, &v);
-                v.axpy(-proj, c, 1.0);
-            }
-        }
-        let norm2 = s_dot(&v, &v);
-        let independent = norm2 > DEPENDENCE_THRESHOLD;
-        if independent {
-            columns.push(v / norm2.sqrt());
-        }
-        independent
-    };
-    let mut columns: Vec<DVector<f64>> = Vec::new();
-    for &i in mine {
-        let restricted = lone_pairs[i].rows(range.start, range.len()).clone_owned();
-        if !push(restricted, &mut columns) {
-            return Err(MixingError::Dependent { index: i, atom });
-        }
-    }
-    for mu in 0..range.len() {
-        if columns.len() == range.len() {
-            break;
-        }
-        let mut e = DVector::zeros(range.len());
-        e[mu] = 1.0;
-        push(e, &mut columns);
-    }
-    Ok(columns)
-}
-
-/// The part of `orbital` (a vector over the full basis) on the atom whose functions are
-/// `range`, other entries zero: e.g. a localized lone-pair orbital restricted to its centre,
-/// the lone pair's atomic orbital for [`hold_non_bonding`] (which normalizes it).
-pub fn restrict_to_atom(orbital: &DVector<f64>, range: Range<usize>) -> DVector<f64> {
-    DVector::from_fn(orbital.len(), |mu, _| {
-        if range.contains(&mu) {
-            orbital[mu]
-        } else {
-            0.0
-        }
-    })
-}
-
-/// Both sides of the switch for an extended Hückel result.
-pub fn compare_mixing(
-    eht: &EhtResult,
-    lone_pairs: &[DVector<f64>],
-) -> Result<MixingComparison, MixingError> {
-    let off = hold_non_bonding(
-        &eht.hamiltonian,
-        &eht.overlap,
-        &eht.basis.atom_ranges,
-        lone_pairs,
-        eht.electrons,
-    )?;
-    let on = Solution {
-        energies: eht.energies.clone(),
-        coefficients: eht.coefficients.clone(),
-        occupations: eht.occupations.clone(),
-        open_shell: eht.open_shell,
-        electrons: eht.electrons,
-        smallest_overlap_eigenvalue: eht.smallest_overlap_eigenvalue,
-    };
-    let overlaps =
-        (off.solution.coefficients.transpose() * &eht.overlap * &on.coefficients).map(|x| x.abs());
-    let off_to_on = match_levels(&overlaps);
-    let pair_overlaps = off_to_on
+    let eigen = SymmetricEigen::new(block.clone());
+    let mut order: Vec<usize> = (0..block.nrows()).collect();
+    order.sort_by(|&a, &b| eigen.eigenvalues[a].total_cmp(&eigen.eigenvalues[b]));
+    let energies = order.iter().map(|&k| eigen.eigenvalues[k]).collect();
+    let vectors = order
         .iter()
-        .enumerate()
-        .map(|(j, &k)| overlaps[(j, k)])
+        .map(|&k| {
+            let mut v = basis * eigen.eigenvectors.column(k);
+            // Sign convention: the largest coefficient is positive.
+            if v.iter()
+                .copied()
+                .fold(0.0_f64, |m, x| if x.abs() > m.abs() { x } else { m })
+                < 0.0
+            {
+                v.neg_mut();
+            }
+            v
+        })
         .collect();
-    let shifts = off_to_on
-        .iter()
-        .enumerate()
-        .map(|(j, &k)| on.energies[k] - off.solution.energies[j])
-        .collect();
-    Ok(MixingComparison {
-        on,
-        off,
-        off_to_on,
-        pair_overlaps,
-        shifts,
-    })
+    (energies, vectors)
 }
 
-/// Pairs rows with columns of a square matrix of overlaps |⟨a_i|b_j⟩| so that the total
-/// squared overlap is largest (Hungarian method, O(n³)). Returns the column of each row.
-/// A non-square matrix pairs the first min(rows, cols) rows; unpaired rows get `usize::MAX`.
-pub fn match_levels(overlaps: &DMatrix<f64>) -> Vec<usize> {
-    let (rows, cols) = (overlaps.nrows(), overlaps.ncols());
-    let n = rows.max(cols);
-    if n == 0 {
-        return Vec::new();
-    }
-    // Cost: −|o|², padded with zeros.
-    let cost = |i: usize, j: usize| -> f64 {
-        if i < rows && j < cols {
-            let o = overlaps[(i, j)];
-            if o.is_finite() { -o * o } else { 0.0 }
-        } else {
-            0.0
-        }
+/// Occupations: held levels occupied with mixing on keep two electrons, the rest by aufbau.
+fn occupy(
+    mixed: MixedState<'_>,
+    energies: &[f64],
+    coefficients: &DMatrix<f64>,
+    held_levels: &[usize],
+) -> (Vec<f64>, bool, Vec<String>) {
+    let on_density = |v: &DVector<f64>| -> f64 {
+        (0..mixed.coefficients.ncols())
+            .map(|j| mixed.occupations[j] * mixed.coefficients.column(j).dot(v).powi(2))
+            .sum()
     };
-    let mut state = Hungarian::new(n);
-    for i in 1..=n {
-        state.augment(i, &cost);
+    let kept: Vec<usize> = held_levels
+        .iter()
+        .copied()
+        .filter(|&k| on_density(&coefficients.column(k).into_owned()) > 1.0)
+        .collect();
+    let rest: Vec<usize> = (0..energies.len()).filter(|k| !kept.contains(k)).collect();
+    let remaining = mixed.electrons.saturating_sub(2 * kept.len());
+    let rest_energies: Vec<f64> = rest.iter().map(|&k| energies[k]).collect();
+    let (rest_occupations, open_shell) = aufbau(&rest_energies, remaining);
+    let mut occupations = vec![0.0; energies.len()];
+    for &k in &kept {
+        occupations[k] = 2.0;
     }
-    let mut assignment = vec![usize::MAX; rows];
-    for (j, &i) in state.p.iter().enumerate().skip(1) {
-        if i >= 1 && i <= rows && j <= cols {
-            assignment[i - 1] = j - 1;
-        }
+    for (&k, &n) in rest.iter().zip(&rest_occupations) {
+        occupations[k] = n;
     }
-    assignment
-}
-
-/// The shortest augmenting path form of the Kuhn–Munkres algorithm with 1-based
-/// potentials u, v; p[j] is the row assigned to column j.
-struct Hungarian {
-    n: usize,
-    u: Vec<f64>,
-    v: Vec<f64>,
-    p: Vec<usize>,
-    way: Vec<usize>,
-}
-
-impl Hungarian {
-    fn new(n: usize) -> Self {
-        Hungarian {
-            n,
-            u: vec![0.0; n + 1],
-            v: vec![0.0; n + 1],
-            p: vec![0; n + 1],
-            way: vec![0; n + 1],
-        }
+    let (plain, _) = aufbau(energies, mixed.electrons);
+    let mut notes = Vec::new();
+    if plain
+        .iter()
+        .zip(&occupations)
+        .any(|(a, b)| (a - b).abs() > 1e-9)
+    {
+        notes.push(
+            "with the lone pairs held, aufbau would empty a held lone pair; it is kept doubly occupied as with mixing on".to_string(),
+        );
     }
-
-    /// Adds row i to the assignment along a shortest augmenting path.
-    fn augment(&mut self, i: usize, cost: &dyn Fn(usize, usize) -> f64) {
-        let n = self.n;
-        self.p[0] = i;
-        let mut j0 = 0;
-        let mut minv = vec![f64::INFINITY; n + 1];
-        let mut used = vec![false; n + 1];
-        loop {
-            used[j0] = true;
-            let i0 = self.p[j0];
-            let (mut delta, mut j1) = (f64::INFINITY, 0);
-            for j in (1..=n).filter(|&j| !used[j]) {
-                let cur = cost(i0 - 1, j - 1) - self.u[i0] - self.v[j];
-                if cur < minv[j] {
-                    minv[j] = cur;
-                    self.way[j] = j0;
-                }
-                if minv[j] < delta {
-                    delta = minv[j];
-                    j1 = j;
-                }
-            }
-            if j1 == 0 {
-                break;
-            }
-            for j in 0..=n {
-                if used[j] {
-                    self.u[self.p[j]] += delta;
-                    self.v[j] -= delta;
-                } else {
-                    minv[j] -= delta;
-                }
-            }
-            j0 = j1;
-            if self.p[j0] == 0 {
-                break;
-            }
-        }
-        loop {
-            let j1 = self.way[j0];
-            self.p[j0] = self.p[j1];
-            j0 = j1;
-            if j0 == 0 {
-                break;
-            }
-        }
-    }
-}
-
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn hungarian_beats_greedy() {
-        // Greedy would take (0,0)=0.9 then (1,1)=0.1: total 0.82; optimum (0,1),(1,0).
-        let o = DMatrix::from_row_slice(2, 2, &[0.9, 0.8, 0.85, 0.1]);
-        assert_eq!(match_levels(&o), vec![1, 0]);
-        let id = DMatrix::<f64>::identity(4, 4);
-        assert_eq!(match_levels(&id), vec![0, 1, 2, 3]);
-        assert!(match_levels(&DMatrix::zeros(0, 0)).is_empty());
-    }
+    (occupations, open_shell, notes)
 }

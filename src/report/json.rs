@@ -5,6 +5,7 @@ use serde::Serialize;
 
 use crate::analysis::{
     Analysis, HybridEntry, LinkSummary, LocalizedSummary, OrbitalSummary, StageError, StageNote,
+    SwitchSummary,
 };
 use crate::localized::{LewisStructure, LocalizationMethod, LocalizedOrbital, SpaceReport};
 
@@ -52,6 +53,8 @@ struct JsonReport<'a> {
     lone_pair_mixing: bool,
     /// Per orbital: its energy with the switch flipped minus its energy here (eV).
     level_shifts: &'a [f64],
+    /// What the switch holds, each held level in both states, or why it is disabled.
+    lone_pair_switch: Option<&'a SwitchSummary>,
     hybrids: &'a [HybridEntry],
     localized: &'a [LocalizedSummary],
     links: &'a [LinkSummary],
@@ -119,6 +122,7 @@ pub fn to_json(analysis: &Analysis) -> String {
         open_shell: analysis.eht.as_ref().map(|eht| eht.open_shell),
         lone_pair_mixing: analysis.settings.lone_pair_mixing,
         level_shifts: &analysis.level_shifts,
+        lone_pair_switch: analysis.lone_pair_switch.as_ref(),
         hybrids: &analysis.hybrid_entries,
         localized: &analysis.localized,
         links: &analysis.links,

@@ -42,6 +42,7 @@ pub fn tables(analysis: &Analysis) -> Vec<Table> {
         super::lewis::lewis_table(analysis),
         hybrid_table(analysis),
         localized_table(analysis),
+        super::switch::switch_table(analysis),
         weight_table(analysis),
     ]
 }

@@ -50,6 +50,7 @@ pub fn to_text(analysis: &Analysis) -> String {
     text.push_str(&lewis_text(analysis));
     text.push_str(&hybrid_table(analysis));
     text.push_str(&localized_table(analysis));
+    text.push_str(&switch_text(analysis));
     for error in &analysis.errors {
         text.push_str(&format!(
             "\n{:?} stage failed: {}\n",
@@ -86,6 +87,27 @@ fn lewis_text(analysis: &Analysis) -> String {
         text.push_str(&format!(
             "  {:<14} {:<14} {}{}\n",
             row[0], row[1], row[2], detail
+        ));
+    }
+    text
+}
+
+/// The lone-pair switch, one line per row of its report table.
+fn switch_text(analysis: &Analysis) -> String {
+    let table = super::switch::switch_table(analysis);
+    if table.rows.is_empty() {
+        return String::new();
+    }
+    let mut text = format!("\n{}\n", table.title);
+    for row in &table.rows {
+        let energies = if row[3].is_empty() {
+            String::new()
+        } else {
+            format!("  off {} eV, on {} eV", row[3], row[4])
+        };
+        text.push_str(&format!(
+            "  {:<11} {:<16} {}{}\n",
+            row[0], row[1], row[2], energies
         ));
     }
     text

@@ -8,6 +8,7 @@
 //! frame fitted to the molecule, so that every operation set is an exact group. Character
 //! tables and labels follow Cotton and Atkins, Child and Phillips, *Tables for Group Theory*.
 
+pub mod adapt;
 mod axial;
 pub mod detect;
 mod frame;
@@ -23,6 +24,7 @@ use thiserror::Error;
 
 use crate::chem::Molecule;
 
+pub use adapt::{SetRotation, degenerate_set_rotations};
 pub use detect::detect;
 pub use label::{OrbitalLabel, core_irrep_counts, label_orbitals};
 pub use ops::{OperationKind, PointGroup};
