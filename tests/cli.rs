@@ -322,3 +322,88 @@ fn switching_lone_pair_mixing_off_moves_only_a1_levels() {
     }
     assert!(lone_pair_moved, "the lone-pair level moves with the switch");
 }
+
+fn json_of(file: &Path, extra: &[&str]) -> serde_json::Value {
+    let output = diptych()
+        .arg("analyze")
+        .arg(file)
+        .args(["--format", "json"])
+        .args(extra)
+        .current_dir(repository())
+        .output()
+        .unwrap();
+    assert!(
+        output.status.success(),
+        "{}: {}",
+        file.display(),
+        String::from_utf8_lossy(&output.stderr)
+    );
+    serde_json::from_slice(&output.stdout).unwrap()
+}
+
+#[test]
+fn the_switch_off_keeps_every_demo_molecule_sound() {
+    // With the lone-pair switch off (default selection, then every lone pair held): every
+    // MO keeps an irrep label, the electrons add up, a closed shell stays closed, held lone
+    // pairs stay doubly occupied, and a disabled switch says why.
+    for file in demo_files() {
+        let on = json_of(&file, &[]);
+        for selection in ["central", "all"] {
+            let off = json_of(
+                &file,
+                &["--no-lone-pair-mixing", "--hold-lone-pairs", selection],
+            );
+            let name = format!("{} ({selection})", file.display());
+            assert_eq!(off["lone_pair_mixing"], false, "{name}");
+            let orbitals = off["orbitals"].as_array().unwrap();
+            for orbital in orbitals {
+                assert!(orbital["irrep"].is_string(), "{name}: {orbital}");
+                assert_ne!(orbital["label"], "?", "{name}");
+            }
+            let electrons: f64 = orbitals
+                .iter()
+                .map(|o| o["occupancy"].as_f64().unwrap())
+                .sum();
+            assert!(
+                (electrons - off["electrons"].as_f64().unwrap()).abs() < 1e-9,
+                "{name}"
+            );
+            if on["open_shell"] == false {
+                assert_eq!(
+                    off["open_shell"], false,
+                    "{name}: a closed shell stays closed"
+                );
+            }
+            let switch = &off["lone_pair_switch"];
+            for level in switch["held"].as_array().unwrap() {
+                assert_eq!(level["occupancy"], 2.0, "{name}");
+            }
+            if switch["held"].as_array().unwrap().is_empty() {
+                assert!(switch["disabled"].is_string(), "{name}: no reason given");
+            }
+        }
+    }
+}
+
+#[test]
+fn hold_lone_pairs_takes_atoms_and_refuses_words_it_does_not_know() {
+    let json = json_of(
+        Path::new("demo_molecules/carbon_monoxide.xyz"),
+        &["--no-lone-pair-mixing", "--hold-lone-pairs", "0"],
+    );
+    let held = json["lone_pair_switch"]["held"].as_array().unwrap();
+    assert_eq!(held.len(), 1);
+    assert_eq!(held[0]["atoms"][0], 0);
+    let output = diptych()
+        .args([
+            "analyze",
+            "demo_molecules/ammonia.xyz",
+            "--hold-lone-pairs",
+            "centre",
+        ])
+        .current_dir(repository())
+        .output()
+        .unwrap();
+    assert_eq!(output.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&output.stderr).contains("central"));
+}

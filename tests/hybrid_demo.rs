@@ -359,15 +359,31 @@ fn ammonia_ladder() {
         for o in occupied.iter().filter(|o| o.kind == LocalizedKind::Bond) {
             assert!(lone[0].energy_ev > o.energy_ev);
         }
-        // Each localized orbital is S-normalized, its energy is ⟨φ|H|φ⟩, and σ is
-        // S-orthogonal to its σ*.
+        // Each localized orbital is S-normalized, a two-centre level's energy is ⟨φ|H|φ⟩
+        // (a lone pair sits at its atomic energy instead), and σ is S-orthogonal to its σ*.
         let n = eht.basis.len();
         for o in &analysis.localized {
             assert_eq!(o.coefficients.len(), n);
             let v = DVector::from_column_slice(&o.coefficients);
             assert!(((v.transpose() * &eht.overlap * &v)[0] - 1.0).abs() < 1e-10);
-            assert!(((v.transpose() * &eht.hamiltonian * &v)[0] - o.energy_ev).abs() < 1e-9);
+            if o.kind != LocalizedKind::LonePair {
+                assert!(((v.transpose() * &eht.hamiltonian * &v)[0] - o.energy_ev).abs() < 1e-9);
+            }
         }
+        // The lone pair's atomic energy: (α_s + λ α_p)/(1 + λ) with N's −26.0 and −13.4 eV
+        // (Hoffmann 1963), λ from its hybrid.
+        let lambda = analysis
+            .hybrid_entries
+            .iter()
+            .find(|h| h.kind == HybridKind::LonePair)
+            .and_then(|h| h.lambda)
+            .expect("the lone pair's λ");
+        let expected = (-26.0 + lambda * -13.4) / (1.0 + lambda);
+        assert!(
+            (lone[0].energy_ev - expected).abs() < 1e-6,
+            "{} vs {expected}",
+            lone[0].energy_ev
+        );
         for sigma in analysis
             .localized
             .iter()

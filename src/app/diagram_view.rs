@@ -3,7 +3,7 @@
 //! correlation lines, a click selects it for the Inspector. Each level is also a node of
 //! the accessibility tree, named by its label.
 
-use diptych::diagram::layout::{Diagram, Level};
+use diptych::diagram::layout::{Caption, Diagram, Level};
 use diptych::diagram::style::format_energy;
 use eframe::egui::{self, Align2, Color32, FontId, Pos2, Rect, Sense, Stroke, Vec2};
 
@@ -117,6 +117,15 @@ pub fn show(
         );
     }
 
+    if let Some(line) = diagram.caption.line(true) {
+        painter.text(
+            map.point(diagram.axis_x, Caption::y(diagram)),
+            Align2::LEFT_BOTTOM,
+            line,
+            FontId::proportional(11.0),
+            faint,
+        );
+    }
     for (ladder_index, ladder) in diagram.ladders.iter().enumerate() {
         painter.text(
             map.point(ladder.title_x, ladder.title_y),

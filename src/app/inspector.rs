@@ -1,4 +1,5 @@
-//! The Inspector panel: the molecule's summary and its Lewis structure, then the selected
+//! The Inspector panel: the molecule's summary, its Lewis structure and the lone-pair
+//! switch, then the selected
 //! orbital (energy, label, kind, occupancies, composition by atom and AO, hybrids, its
 //! orbital map) and the selected atom.
 
@@ -16,6 +17,7 @@ use super::menus::Dialogs;
 use super::molecule_panel;
 use super::orbital_map_view;
 use super::state::AppState;
+use super::switch_section::{self, SwitchEdit};
 use diptych::orbital_map::OrbitalRef;
 
 pub fn show(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
@@ -24,6 +26,15 @@ pub fn show(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
     if let Some(analysis) = state.analysis.clone() {
         lewis_section::show(ui, &analysis, state.selected_atom);
         ui.separator();
+        let settings = &mut state.project.settings;
+        match switch_section::show(ui, &analysis, &settings.held_lone_pairs) {
+            Some(SwitchEdit::Held(held)) => settings.held_lone_pairs = held,
+            Some(SwitchEdit::Convention(convention)) => settings.hold_convention = convention,
+            None => {}
+        }
+        if analysis.lone_pair_switch.is_some() {
+            ui.separator();
+        }
     }
     if let (Some(level), Some(analysis)) = (state.selected_level, state.analysis.clone()) {
         let orbital = if level.ladder == 0 {

@@ -20,6 +20,7 @@ mod screenshot;
 mod settings_window;
 mod state;
 mod structure_view;
+mod switch_section;
 mod theme;
 mod transition;
 mod walsh_plot;
@@ -245,14 +246,28 @@ impl DiptychApp {
                 .labelled_by(right_label.id);
         });
         ui.horizontal_wrapped(|ui| {
-            ui.checkbox(
-                &mut self.state.project.settings.lone_pair_mixing,
-                "Lone-pair mixing",
+            let settings = &mut self.state.project.settings;
+            // Nothing to hold (CO, N2 by default): the switch cannot be turned off, and
+            // the hover says why; once off (from a project file) it can always go on.
+            let disabled = self
+                .state
+                .analysis
+                .as_ref()
+                .and_then(|a| a.lone_pair_switch.as_ref())
+                .and_then(|s| s.disabled.clone())
+                .filter(|_| settings.lone_pair_mixing);
+            let hover = disabled.clone().unwrap_or_else(|| {
+                "On: the full solution. Off: the lone pairs chosen in the Inspector are held \
+                 non-bonding (the first-order diagram). Dotted bars show where levels go when \
+                 flipped."
+                    .to_string()
+            });
+            ui.add_enabled(
+                disabled.is_none(),
+                egui::Checkbox::new(&mut settings.lone_pair_mixing, "Lone-pair mixing"),
             )
-            .on_hover_text(
-                "On: the full solution. Off: each lone pair's p orbital is held non-bonding \
-                     (the first-order diagram). Dotted marks show where levels go when flipped.",
-            );
+            .on_hover_text(&hover)
+            .on_disabled_hover_text(&hover);
             ui.checkbox(&mut self.state.project.view.show_energies, "Energies");
             ui.add(
                 egui::Slider::new(&mut self.state.project.view.link_threshold, 0.0..=0.5)

@@ -3,9 +3,13 @@
 //! lines above the user's weight threshold.
 
 use crate::analysis::Analysis;
+use crate::localized::held::HoldConvention;
 use crate::project::LadderTitles;
+use crate::report::tables::atom_name;
 
-use super::layout::{Diagram, LadderInput, LevelInput, LinkInput, default_window, layout_in};
+use super::layout::{
+    Caption, Diagram, LadderInput, LevelInput, LinkInput, default_window, layout_in,
+};
 
 /// Orbitals closer than this (eV) are drawn as one degenerate set (the solver's own
 /// tolerance for sharing electrons in a set).
@@ -135,5 +139,49 @@ pub fn diagram_for(analysis: &Analysis, options: &DiagramOptions) -> Diagram {
     let window = options
         .energy_window
         .unwrap_or_else(|| default_window(&ladders, options.virtual_span_ev));
-    layout_in(&ladders, &links, window)
+    let mut diagram = layout_in(&ladders, &links, window);
+    diagram.caption = caption(analysis, &diagram);
+    diagram
+}
+
+/// The switch's state and, when levels carry dotted marks, their legend.
+fn caption(analysis: &Analysis, diagram: &Diagram) -> Caption {
+    let mixing = analysis.settings.lone_pair_mixing;
+    let switch_state = analysis.lone_pair_switch.as_ref().and_then(|switch| {
+        if let Some(reason) = &switch.disabled {
+            return (!mixing).then(|| format!("Lone-pair mixing off, nothing held: {reason}"));
+        }
+        let held: Vec<String> = switch
+            .choices
+            .iter()
+            .filter(|c| c.held)
+            .map(|c| format!("{} on {}", c.label, atom_name(analysis, c.lone_pair.atom)))
+            .collect();
+        let what = match switch.convention {
+            HoldConvention::FirstOrder => "its centre's p orbital",
+            HoldConvention::Hybrid => "its hybrid",
+        };
+        Some(if mixing {
+            "Lone-pair mixing on".to_string()
+        } else {
+            format!(
+                "Lone-pair mixing off: {} held non-bonding ({what})",
+                held.join(", ")
+            )
+        })
+    });
+    let shifted = diagram
+        .ladders
+        .iter()
+        .any(|ladder| ladder.levels.iter().any(|level| level.shifted_y.is_some()));
+    let shift_legend = shifted.then(|| {
+        format!(
+            "dotted bars: the levels with mixing {}",
+            if mixing { "off" } else { "on" }
+        )
+    });
+    Caption {
+        switch_state,
+        shift_legend,
+    }
 }

@@ -134,6 +134,34 @@ pub struct Diagram {
     pub ticks: Vec<Tick>,
     pub ladders: Vec<Ladder>,
     pub links: Vec<Link>,
+    /// The caption under the axis: the lone-pair switch's state, and the legend of the
+    /// dotted marks (where levels go with the switch flipped) when there are any.
+    pub caption: Caption,
+}
+
+/// The caption line of a diagram (DESIGN §4.6).
+#[derive(Clone, Debug, Default, PartialEq, Serialize)]
+pub struct Caption {
+    pub switch_state: Option<String>,
+    pub shift_legend: Option<String>,
+}
+
+impl Caption {
+    /// The caption's parts joined into one line (the legend only with `with_legend`).
+    pub fn line(&self, with_legend: bool) -> Option<String> {
+        let parts: Vec<&str> = self
+            .switch_state
+            .iter()
+            .chain(self.shift_legend.iter().filter(|_| with_legend))
+            .map(String::as_str)
+            .collect();
+        (!parts.is_empty()).then(|| parts.join(" · "))
+    }
+
+    /// Vertical position of the caption in the diagram's coordinates.
+    pub fn y(diagram: &Diagram) -> f64 {
+        diagram.height - 8.0
+    }
 }
 
 impl Diagram {
@@ -246,6 +274,7 @@ pub fn layout_in(ladders: &[LadderInput; 2], links: &[LinkInput], window: (f64, 
         ticks,
         ladders: placed,
         links,
+        caption: Caption::default(),
     }
 }
 

@@ -5,7 +5,7 @@
 
 use std::fmt::Write;
 
-use super::layout::{Diagram, Level, Link};
+use super::layout::{Caption, Diagram, Level, Link};
 use super::style::{Script, format_energy, label_runs, level_rgb, to_grey};
 
 /// Export choices (DESIGN §5.3).
@@ -340,6 +340,16 @@ pub fn to_svg(diagram: &Diagram, options: &SvgOptions) -> String {
             write_level(&mut svg, level, index, options, &ink, &faint);
         }
         let _ = writeln!(svg, "</g>");
+    }
+    if let Some(line) = diagram.caption.line(options.show_level_shifts) {
+        let _ = writeln!(
+            svg,
+            "<text id=\"caption\" x=\"{}\" y=\"{}\" font-size=\"{}\" fill=\"{faint}\">{}</text>",
+            number(diagram.axis_x),
+            number(Caption::y(diagram)),
+            number(options.font_size * 0.8),
+            escape_xml(&line)
+        );
     }
     let _ = writeln!(svg, "</svg>");
     svg
