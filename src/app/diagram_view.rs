@@ -225,6 +225,15 @@ fn draw_level(
             [left - Vec2::new(4.0, 0.0), a - Vec2::new(4.0, 0.0)],
             Stroke::new(1.0, faint),
         );
+        if let Some(text) = &level.shift_text {
+            painter.text(
+                a - Vec2::new(8.0, 0.0),
+                Align2::RIGHT_CENTER,
+                text,
+                FontId::proportional(9.5),
+                faint,
+            );
+        }
     }
     draw_electrons(painter, left, right, level.occupancy, ink, map.scale);
     if level.label_x.is_finite() {

@@ -9,6 +9,7 @@ use egui_kittest::kittest::{NodeT, Queryable};
 use super::DiptychApp;
 use super::bond_sticks::BondDrawing;
 use super::diagram_view::LevelRef;
+use diptych::localized::held::{HeldLonePairs, HoldConvention};
 
 fn harness() -> Harness<'static, DiptychApp> {
     let app = DiptychApp::new(egui::Context::default(), None, None);
@@ -289,6 +290,58 @@ fn the_lone_pair_switch_moves_the_lone_pair_level() {
     // Held non-bonding, ammonia's lone pair sits at the N 2p VSIP (−13.4 eV, Hoffmann 1963).
     assert!((after + 13.4).abs() < 1e-6, "{after}");
     assert!((after - before).abs() > 0.1);
+}
+
+#[test]
+fn the_inspector_chooses_lone_pairs_and_the_convention() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    harness.get_by_label("Lone-pair mixing").click();
+    harness.run_steps(1);
+    wait_for_analysis(&mut harness);
+    // The caption under the axis states the switch (first-order convention).
+    let caption = harness
+        .state()
+        .state
+        .diagram
+        .as_ref()
+        .map(|d| d.caption.clone());
+    let state = caption.and_then(|c| c.switch_state).unwrap_or_default();
+    assert!(
+        state.starts_with("Lone-pair mixing off: n(N) on N0 held non-bonding"),
+        "{state}"
+    );
+    // The hybrid convention holds the lone-pair hybrid at the ladder's n(N) energy.
+    harness.get_by_label("hybrid").click();
+    harness.run_steps(1);
+    wait_for_analysis(&mut harness);
+    let settings = &harness.state().state.project.settings;
+    assert_eq!(settings.hold_convention, HoldConvention::Hybrid);
+    let analysis = harness.state().state.analysis.clone().expect("analysis");
+    let held = &analysis.lone_pair_switch.as_ref().unwrap().held[0];
+    let ladder_n = analysis
+        .localized
+        .iter()
+        .find(|l| l.label == "n(N)")
+        .unwrap();
+    assert!((held.energy_off_ev - ladder_n.energy_ev).abs() < 1e-9);
+    // Unticking the only lone pair leaves nothing held: an explicit, empty choice.
+    harness.get_by_label("n(N) on N0 (#1)").click();
+    harness.run_steps(1);
+    wait_for_analysis(&mut harness);
+    assert_eq!(
+        harness.state().state.project.settings.held_lone_pairs,
+        HeldLonePairs::Chosen(Vec::new())
+    );
+    let analysis = harness.state().state.analysis.clone().expect("analysis");
+    assert!(
+        analysis
+            .lone_pair_switch
+            .as_ref()
+            .unwrap()
+            .disabled
+            .is_some()
+    );
 }
 
 #[test]

@@ -46,7 +46,13 @@ pub fn diagram_for(analysis: &Analysis, options: &DiagramOptions) -> Diagram {
     let mut group_of = Vec::with_capacity(analysis.orbitals.len());
     let mut group = 0;
     for (n, orbital) in analysis.orbitals.iter().enumerate() {
-        if n > 0 && (orbital.energy_ev - analysis.orbitals[n - 1].energy_ev).abs() > DEGENERACY_EV {
+        // A set is one energy and one label: an accidental degeneracy of two irreps (water's
+        // 3a1 and 1b1 with both lone pairs held) is two sets, each with its label.
+        let previous = n.checked_sub(1).map(|p| &analysis.orbitals[p]);
+        if previous.is_some_and(|p| {
+            (orbital.energy_ev - p.energy_ev).abs() > DEGENERACY_EV
+                || (orbital.label.is_some() && orbital.label != p.label)
+        }) {
             group += 1;
         }
         group_of.push(group);
@@ -151,11 +157,28 @@ fn caption(analysis: &Analysis, diagram: &Diagram) -> Caption {
         if let Some(reason) = &switch.disabled {
             return (!mixing).then(|| format!("Lone-pair mixing off, nothing held: {reason}"));
         }
-        let held: Vec<String> = switch
-            .choices
-            .iter()
-            .filter(|c| c.held)
-            .map(|c| format!("{} on {}", c.label, atom_name(analysis, c.lone_pair.atom)))
+        // "n(N) on N0", or "2 n(O) on O0" for two lone pairs of one atom.
+        let mut held: Vec<(String, usize)> = Vec::new();
+        for choice in switch.choices.iter().filter(|c| c.held) {
+            let name = format!(
+                "{} on {}",
+                choice.label,
+                atom_name(analysis, choice.lone_pair.atom)
+            );
+            match held.iter_mut().find(|(known, _)| *known == name) {
+                Some((_, count)) => *count += 1,
+                None => held.push((name, 1)),
+            }
+        }
+        let held: Vec<String> = held
+            .into_iter()
+            .map(|(name, count)| {
+                if count > 1 {
+                    format!("{count} {name}")
+                } else {
+                    name
+                }
+            })
             .collect();
         let what = match switch.convention {
             HoldConvention::FirstOrder => "its centre's p orbital",
@@ -176,7 +199,7 @@ fn caption(analysis: &Analysis, diagram: &Diagram) -> Caption {
         .any(|ladder| ladder.levels.iter().any(|level| level.shifted_y.is_some()));
     let shift_legend = shifted.then(|| {
         format!(
-            "dotted bars: the levels with mixing {}",
+            "dotted bars: the levels with mixing {} (shift in eV)",
             if mixing { "off" } else { "on" }
         )
     });

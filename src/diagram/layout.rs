@@ -89,6 +89,8 @@ pub struct Level {
     /// Vertical position of the level with the lone-pair switch flipped, when it moves
     /// by more than 0.01 eV.
     pub shifted_y: Option<f64>,
+    /// How far it moves ("+0.32", eV), on the first member of a set only.
+    pub shift_text: Option<String>,
 }
 
 /// A placed correlation line, between the inner ends of two bars.
@@ -372,7 +374,29 @@ fn place_ladder(input: &LadderInput, span: (f64, f64), side: usize, min: f64, ma
                     && (member.energy_ev - lumo_energy).abs() < 1e-6,
                 shifted_y: (member.shift_ev.abs() > 0.01)
                     .then(|| y_of(member.energy_ev + member.shift_ev, min, max)),
+                shift_text: (n == 0 && member.shift_ev.abs() > 0.01).then(|| {
+                    let sign = if member.shift_ev > 0.0 { "+" } else { "" };
+                    format!("{sign}{}", super::style::format_energy(member.shift_ev, 2))
+                }),
             });
+        }
+    }
+    // Two sets at one energy (an accidental degeneracy) are both frontier sets; the tag
+    // goes on the outer one only.
+    fn homo(level: &mut Level) -> &mut bool {
+        &mut level.is_homo
+    }
+    fn lumo(level: &mut Level) -> &mut bool {
+        &mut level.is_lumo
+    }
+    for tag in [homo, lumo] {
+        let mut tagged: Vec<usize> = (0..levels.len())
+            .filter(|&k| *tag(&mut levels[k]))
+            .collect();
+        tagged.sort_by(|&a, &b| levels[a].x_right.total_cmp(&levels[b].x_right));
+        tagged.pop();
+        for k in tagged {
+            *tag(&mut levels[k]) = false;
         }
     }
     spread_labels(&mut levels, side, span);

@@ -389,6 +389,16 @@ fn write_level(
             s = number(shifted),
             x = number(level.x_left - 4.0)
         );
+        if let Some(text) = &level.shift_text {
+            let _ = writeln!(
+                svg,
+                "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"end\" fill=\"{faint}\">{}</text>",
+                number(level.x_left - 8.0),
+                number(shifted + options.font_size * 0.25),
+                number(options.font_size * 0.65),
+                escape_xml(text)
+            );
+        }
     }
     // Electrons: up and down arrows (one arrow for a singly occupied level).
     if level.occupancy > 0.05 {
