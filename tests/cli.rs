@@ -406,4 +406,15 @@ fn hold_lone_pairs_takes_atoms_and_refuses_words_it_does_not_know() {
         .unwrap();
     assert_eq!(output.status.code(), Some(2));
     assert!(String::from_utf8_lossy(&output.stderr).contains("central"));
+    // An atom without a lone pair is said, not silently dropped.
+    let json = json_of(
+        Path::new("demo_molecules/ammonia.xyz"),
+        &["--no-lone-pair-mixing", "--hold-lone-pairs", "0,99"],
+    );
+    let notes = json["notes"].to_string();
+    assert!(notes.contains("atom 99 has no lone pair"), "{notes}");
+    assert_eq!(
+        json["lone_pair_switch"]["held"].as_array().unwrap().len(),
+        1
+    );
 }

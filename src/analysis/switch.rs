@@ -122,6 +122,7 @@ pub(super) fn apply(
             held: request.selection.holds(c),
         })
         .collect();
+    notes.extend(unmatched_choices(&candidates, request.selection));
     let mut summary = SwitchSummary {
         mixing: request.mixing,
         convention: request.convention,
@@ -170,6 +171,31 @@ fn disabled_reason(candidates: &[LonePairCandidate], selection: &HeldLonePairs) 
         "no lone pair on an atom with two or more bonded partners (terminal lone pairs are held only when chosen)".to_string()
     } else {
         "none of the chosen lone pairs can be held".to_string()
+    }
+}
+
+/// A note for each chosen atom or lone pair the ladder does not have (a typo on the
+/// command line, a project written for another geometry), so no choice is lost silently.
+fn unmatched_choices(candidates: &[LonePairCandidate], selection: &HeldLonePairs) -> Vec<String> {
+    let has_atom = |atom: usize| candidates.iter().any(|c| c.lone_pair.atom == atom);
+    match selection {
+        HeldLonePairs::Atoms(atoms) => atoms
+            .iter()
+            .filter(|&&atom| !has_atom(atom))
+            .map(|atom| format!("atom {atom} has no lone pair to hold (atoms are numbered from 0)"))
+            .collect(),
+        HeldLonePairs::Chosen(pairs) => pairs
+            .iter()
+            .filter(|pair| !candidates.iter().any(|c| c.lone_pair == **pair))
+            .map(|pair| {
+                format!(
+                    "atom {} has no lone pair #{} to hold (atoms are numbered from 0)",
+                    pair.atom,
+                    pair.index + 1
+                )
+            })
+            .collect(),
+        HeldLonePairs::Central | HeldLonePairs::All => Vec::new(),
     }
 }
 
