@@ -239,18 +239,7 @@ fn ammonia_json_lists_seven_labelled_valence_orbitals() {
 }
 
 fn ammonia_json(extra: &[&str]) -> serde_json::Value {
-    let output = diptych()
-        .args(["analyze", "demo_molecules/ammonia.xyz", "--format", "json"])
-        .args(extra)
-        .current_dir(repository())
-        .output()
-        .unwrap();
-    assert!(
-        output.status.success(),
-        "{}",
-        String::from_utf8_lossy(&output.stderr)
-    );
-    serde_json::from_slice(&output.stdout).unwrap()
+    json_of(Path::new("demo_molecules/ammonia.xyz"), extra)
 }
 
 #[test]

@@ -6,6 +6,7 @@
 use diptych::analysis::{Analysis, SwitchSummary};
 use diptych::diagram::style::format_energy;
 use diptych::localized::held::{HeldLonePairs, HoldConvention, LonePairCandidate, LonePairRef};
+use diptych::report::switch::held_atoms;
 use diptych::report::tables::atom_name;
 use eframe::egui;
 
@@ -93,14 +94,9 @@ fn choices(ui: &mut egui::Ui, analysis: &Analysis, summary: &SwitchSummary) -> O
 /// Each held level: its atoms and its energy in both states.
 fn held_levels(ui: &mut egui::Ui, analysis: &Analysis, summary: &SwitchSummary) {
     for level in &summary.held {
-        let atoms: Vec<String> = level
-            .atoms
-            .iter()
-            .map(|&a| atom_name(analysis, a))
-            .collect();
         ui.label(format!(
             "Held on {}: {} eV with mixing off, {} eV with mixing on",
-            atoms.join(", "),
+            held_atoms(analysis, level),
             format_energy(level.energy_off_ev, 2),
             format_energy(level.energy_on_ev, 2)
         ));

@@ -7,7 +7,7 @@ mod csv;
 mod json;
 mod lewis;
 mod markdown;
-mod switch;
+pub mod switch;
 pub mod tables;
 mod text;
 

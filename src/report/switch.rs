@@ -3,7 +3,17 @@
 //! energy with mixing off and on.
 
 use super::tables::{Table, atom_name, fixed};
-use crate::analysis::Analysis;
+use crate::analysis::{Analysis, HeldLevel};
+
+/// The atoms of a held level by name ("O0", "N0 N3").
+pub fn held_atoms(analysis: &Analysis, level: &HeldLevel) -> String {
+    let names: Vec<String> = level
+        .atoms
+        .iter()
+        .map(|&a| atom_name(analysis, a))
+        .collect();
+    names.join(" ")
+}
 
 /// One row per lone pair the switch could hold, then one per held level; empty without a
 /// localized picture.
@@ -38,14 +48,9 @@ pub fn switch_table(analysis: &Analysis) -> Table {
             ]);
         }
         for level in &summary.held {
-            let atoms: Vec<String> = level
-                .atoms
-                .iter()
-                .map(|&a| atom_name(analysis, a))
-                .collect();
             rows.push(vec![
                 "held_level".to_string(),
-                atoms.join(" "),
+                held_atoms(analysis, level),
                 fixed(level.occupancy, 2),
                 fixed(level.energy_off_ev, 3),
                 fixed(level.energy_on_ev, 3),
