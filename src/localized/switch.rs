@@ -212,15 +212,13 @@ fn occupy(
     coefficients: &DMatrix<f64>,
     held_levels: &[usize],
 ) -> (Vec<f64>, bool, Vec<String>) {
-    let on_density = |v: &DVector<f64>| -> f64 {
-        (0..mixed.coefficients.ncols())
-            .map(|j| mixed.occupations[j] * mixed.coefficients.column(j).dot(v).powi(2))
-            .sum()
-    };
+    let held = coefficients.select_columns(held_levels);
+    let with_mixing = super::true_occupancies(&held, mixed.coefficients, mixed.occupations);
     let kept: Vec<usize> = held_levels
         .iter()
-        .copied()
-        .filter(|&k| on_density(&coefficients.column(k).into_owned()) > 1.0)
+        .zip(&with_mixing)
+        .filter(|&(_, &n)| n > 1.0)
+        .map(|(&k, _)| k)
         .collect();
     let rest: Vec<usize> = (0..energies.len()).filter(|k| !kept.contains(k)).collect();
     let remaining = mixed.electrons.saturating_sub(2 * kept.len());
