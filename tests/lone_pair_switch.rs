@@ -266,3 +266,44 @@ fn chosen_terminal_lone_pairs_are_held() {
     // C 2p of the standard parameters.
     assert!((switch.held[0].energy_off_ev + 11.4).abs() < 1e-9);
 }
+
+#[test]
+fn project_files_choose_lone_pairs_as_the_readme_spells_it() {
+    let opened =
+        diptych::project::open_path(&root().join("demo_molecules/water.xyz")).expect("opens");
+    let mut project = opened.project;
+    project.settings.lone_pair_mixing = false;
+    project.settings.held_lone_pairs =
+        HeldLonePairs::Chosen(vec![diptych::localized::held::LonePairRef {
+            atom: 0,
+            index: 1,
+        }]);
+    project.settings.hold_convention = HoldConvention::Hybrid;
+    let text = project.to_ron().expect("writes");
+    assert!(text.contains("hold_convention: hybrid"), "{text}");
+    let back = diptych::project::Project::from_ron(&text).expect("reads back");
+    assert_eq!(back.settings, project.settings);
+    // The spellings the README gives for project files, in place of the written choice.
+    let start = text.find("held_lone_pairs:").expect("written");
+    let end = text.find("hold_convention:").expect("written");
+    for (spelling, expected) in [
+        ("central", HeldLonePairs::Central),
+        ("all", HeldLonePairs::All),
+        ("atoms([0, 2])", HeldLonePairs::Atoms(vec![0, 2])),
+        (
+            "chosen([(atom: 0, index: 1)])",
+            project.settings.held_lone_pairs.clone(),
+        ),
+    ] {
+        let edited = format!(
+            "{}held_lone_pairs: {spelling},\n    {}",
+            &text[..start],
+            &text[end..]
+        );
+        let read = diptych::project::Project::from_ron(&edited).expect("reads");
+        assert_eq!(read.settings.held_lone_pairs, expected, "{spelling}");
+    }
+    // One lone pair of two held: a single held level.
+    let analysis = Analysis::run(&project.molecule, &project.settings).unwrap();
+    assert_eq!(analysis.lone_pair_switch.unwrap().held.len(), 1);
+}
