@@ -307,3 +307,49 @@ fn project_files_choose_lone_pairs_as_the_readme_spells_it() {
     let analysis = Analysis::run(&project.molecule, &project.settings).unwrap();
     assert_eq!(analysis.lone_pair_switch.unwrap().held.len(), 1);
 }
+
+#[test]
+fn every_test_molecule_survives_the_switch_with_every_lone_pair_held() {
+    // Open shells, ions, hypervalent and electron-deficient molecules, atoms: with every
+    // lone pair held the switch either holds them or says why not, the electrons add up
+    // and the weights stay a partition (no closed-shell check: a held open shell may
+    // refill).
+    for folder in ["demo_molecules", "tests/hard_molecules"] {
+        for path in xyz_files(folder) {
+            let molecule = load(&path);
+            let name = path.display().to_string();
+            let off = run(&molecule, HeldLonePairs::All, HoldConvention::FirstOrder);
+            if off.eht.is_none() {
+                continue;
+            }
+            // A single atom has no point group (a symmetry-stage error of its own).
+            let errors: Vec<_> = off
+                .errors
+                .iter()
+                .filter(|e| e.stage != diptych::analysis::Stage::Symmetry)
+                .collect();
+            assert!(errors.is_empty(), "{name}: {errors:?}");
+            let electrons: f64 = off.orbitals.iter().map(|o| o.occupancy).sum();
+            assert!((electrons - off.electrons as f64).abs() < 1e-9, "{name}");
+            let switch = off.lone_pair_switch.as_ref().expect("summary");
+            assert!(
+                switch.disabled.is_some() || !switch.held.is_empty(),
+                "{name}"
+            );
+            // Holding never costs a label (a "?" appears only where symmetry gives none
+            // with mixing on too).
+            let on = Analysis::run(&molecule, &Settings::default()).unwrap();
+            let unlabelled = |a: &Analysis| {
+                a.orbitals
+                    .iter()
+                    .filter(|o| o.label.as_deref() == Some("?"))
+                    .count()
+            };
+            assert!(unlabelled(&off) <= unlabelled(&on), "{name}");
+            let (by_localized, by_canonical) = weight_sums(&off);
+            for total in by_localized.iter().chain(&by_canonical) {
+                assert!((total - 1.0).abs() < 0.01, "{name}: weights {total}");
+            }
+        }
+    }
+}
