@@ -113,7 +113,7 @@ pub(super) fn apply(
         &atomic,
         request.convention,
     );
-    let choices = candidates
+    let mut choices: Vec<LonePairChoice> = candidates
         .iter()
         .map(|c| LonePairChoice {
             lone_pair: c.lone_pair,
@@ -122,6 +122,8 @@ pub(super) fn apply(
             held: request.selection.holds(c),
         })
         .collect();
+    // By atom, then by the lone pair's rank on it (the ladder lists them by energy).
+    choices.sort_by_key(|c| c.lone_pair);
     notes.extend(unmatched_choices(&candidates, request.selection));
     let mut summary = SwitchSummary {
         mixing: request.mixing,

@@ -72,8 +72,28 @@ fn candidates(summary: &SwitchSummary) -> Vec<LonePairCandidate> {
         .collect()
 }
 
-/// One checkbox per lone pair; returns the one clicked.
+/// Above this many lone pairs the checkboxes fold away (SF6 has eighteen).
+const FOLD_ABOVE: usize = 6;
+
+/// One checkbox per lone pair, folded when there are many; returns the one clicked.
 fn choices(ui: &mut egui::Ui, analysis: &Analysis, summary: &SwitchSummary) -> Option<LonePairRef> {
+    if summary.choices.len() <= FOLD_ABOVE {
+        return checkboxes(ui, analysis, summary);
+    }
+    let held = summary.choices.iter().filter(|c| c.held).count();
+    let title = format!("Lone pairs ({held} of {} held)", summary.choices.len());
+    egui::CollapsingHeader::new(title)
+        .id_salt("lone pair choices")
+        .show(ui, |ui| checkboxes(ui, analysis, summary))
+        .body_returned
+        .flatten()
+}
+
+fn checkboxes(
+    ui: &mut egui::Ui,
+    analysis: &Analysis,
+    summary: &SwitchSummary,
+) -> Option<LonePairRef> {
     let mut clicked = None;
     for choice in &summary.choices {
         let mut held = choice.held;
