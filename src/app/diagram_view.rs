@@ -4,7 +4,7 @@
 //! the accessibility tree, named by its label.
 
 use diptych::diagram::layout::{Caption, Diagram, Level};
-use diptych::diagram::style::format_energy;
+use diptych::diagram::style::{electron_marks, format_energy, link_opacity, link_width};
 use eframe::egui::{self, Align2, Color32, FontId, Pos2, Rect, Sense, Stroke, Vec2};
 
 use super::theme::{ACCENT, level_colour};
@@ -99,7 +99,8 @@ pub fn show(
                 || (f.ladder == 0
                     && group_of(diagram, f).is_some_and(|g| g == link.delocalized_group))
         });
-        let alpha = (60.0 + 195.0 * link.weight.clamp(0.0, 1.0)) as u8;
+        // The export's width and opacity (one style for screen and SVG).
+        let alpha = (255.0 * link_opacity(link.weight)) as u8;
         let colour = if lit {
             ACCENT
         } else if focus.is_some() {
@@ -107,7 +108,7 @@ pub fn show(
         } else {
             Color32::from_rgba_unmultiplied(faint.r(), faint.g(), faint.b(), alpha)
         };
-        let width = 0.6 + 3.0 * link.weight as f32;
+        let width = link_width(link.weight) as f32 * map.scale;
         painter.line_segment(
             [
                 map.point(link.from.0, link.from.1),
@@ -354,9 +355,6 @@ fn draw_electrons(
     ink: Color32,
     scale: f32,
 ) {
-    if occupancy <= 0.05 {
-        return;
-    }
     let centre = left + (right - left) * 0.5;
     let length = (16.0 * scale).clamp(7.0, 14.0);
     let arrow = |x: f32, up: bool| {
@@ -377,11 +375,23 @@ fn draw_electrons(
         painter.line_segment([head, head + Vec2::new(-2.8, back)], stroke);
         painter.line_segment([head, head + Vec2::new(2.8, back)], stroke);
     };
-    if occupancy > 1.5 {
-        arrow(centre.x - 4.0, true);
-        arrow(centre.x + 4.0, false);
+    let marks = electron_marks(occupancy);
+    let offsets: &[f32] = if marks.arrows.len() == 2 {
+        &[-4.0, 4.0]
     } else {
-        arrow(centre.x, true);
+        &[0.0]
+    };
+    for (&offset, &up) in offsets.iter().zip(&marks.arrows) {
+        arrow(centre.x + offset, up);
+    }
+    if let Some(text) = marks.fraction {
+        painter.text(
+            Pos2::new(right.x - 1.0, centre.y - 2.0),
+            Align2::RIGHT_BOTTOM,
+            text,
+            FontId::proportional(9.0),
+            ink,
+        );
     }
 }
 

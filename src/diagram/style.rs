@@ -95,6 +95,30 @@ pub fn label_runs(label: &str) -> Vec<(String, Script)> {
 
 #[cfg(test)]
 mod tests {
+    #[test]
+    fn electrons_are_drawn_as_the_level_holds_them() {
+        assert!(electron_marks(0.0).arrows.is_empty());
+        assert_eq!(electron_marks(2.0).arrows, vec![true, false]);
+        assert_eq!(electron_marks(1.0).arrows, vec![true]);
+        assert_eq!(electron_marks(1.0).fraction, None);
+        // NO's 2π: one electron over two orbitals, half each, written as such.
+        let half = electron_marks(0.5);
+        assert_eq!(half.arrows, vec![true]);
+        assert_eq!(half.fraction.as_deref(), Some("0.5 e"));
+        // A 4/3 share (four electrons over a threefold set).
+        let share = electron_marks(4.0 / 3.0);
+        assert_eq!(share.arrows, vec![true, false]);
+        assert_eq!(share.fraction.as_deref(), Some("1.33 e"));
+    }
+
+    #[test]
+    fn correlation_lines_grow_with_their_weight() {
+        assert!(link_width(1.0) > link_width(0.1));
+        assert!(link_opacity(1.0) > link_opacity(0.1));
+        assert_eq!(link_opacity(1.0), 1.0);
+        assert_eq!(link_width(2.0), link_width(1.0));
+    }
+
     use super::*;
 
     #[test]
@@ -136,4 +160,44 @@ mod tests {
         assert!(dark[0] < light[0]);
         assert_eq!(dark[0], dark[1]);
     }
+}
+
+/// Width of a correlation line, in the diagram's units (the view box of the SVG; the
+/// window scales it like every other length): it grows with the weight (our own scale).
+pub fn link_width(weight: f64) -> f64 {
+    0.8 + 4.0 * weight.clamp(0.0, 1.0)
+}
+
+/// Opacity of a correlation line: faint for small weights, full at weight 1.
+pub fn link_opacity(weight: f64) -> f64 {
+    0.25 + 0.75 * weight.clamp(0.0, 1.0)
+}
+
+/// How a level's electrons are drawn: its arrows (true for spin up) and, when the level
+/// holds a share of a partly filled degenerate set (not 0, 1 or 2 electrons), that share
+/// written beside them, so a set's marks add up to its true electron count.
+#[derive(Clone, Debug, PartialEq)]
+pub struct ElectronMarks {
+    pub arrows: Vec<bool>,
+    pub fraction: Option<String>,
+}
+
+/// Occupancies within this of a whole number are drawn as that number of arrows.
+const WHOLE_ELECTRON: f64 = 0.02;
+
+/// The marks of a level with `occupancy` electrons (0 to 2).
+pub fn electron_marks(occupancy: f64) -> ElectronMarks {
+    let nearest = occupancy.round();
+    let whole = (occupancy - nearest).abs() < WHOLE_ELECTRON;
+    let count = if whole { nearest } else { occupancy.ceil() };
+    let arrows = match count as i64 {
+        i64::MIN..=0 => Vec::new(),
+        1 => vec![true],
+        _ => vec![true, false],
+    };
+    let fraction = (!whole && occupancy > WHOLE_ELECTRON).then(|| {
+        let text = format!("{occupancy:.2}");
+        format!("{} e", text.trim_end_matches('0').trim_end_matches('.'))
+    });
+    ElectronMarks { arrows, fraction }
 }

@@ -6,7 +6,9 @@
 use std::fmt::Write;
 
 use super::layout::{Caption, Diagram, Level, Link};
-use super::style::{Script, format_energy, label_runs, level_rgb, to_grey};
+use super::style::{
+    Script, electron_marks, format_energy, label_runs, level_rgb, link_opacity, link_width, to_grey,
+};
 
 /// Export choices (DESIGN §5.3).
 #[derive(Clone, Debug, PartialEq)]
@@ -157,15 +159,6 @@ struct LinkStroke {
     to: (f64, f64),
     width: f64,
     opacity: f64,
-}
-
-/// Width and opacity of a correlation line grow with its weight (our own scale).
-fn link_width(weight: f64) -> f64 {
-    0.8 + 4.0 * weight.clamp(0.0, 1.0)
-}
-
-fn link_opacity(weight: f64) -> f64 {
-    0.25 + 0.75 * weight.clamp(0.0, 1.0)
 }
 
 /// The links as strokes, with lines that share both ends (the members of an equivalent
@@ -400,31 +393,41 @@ fn write_level(
             );
         }
     }
-    // Electrons: up and down arrows (one arrow for a singly occupied level).
-    if level.occupancy > 0.05 {
-        let centre = (level.x_left + level.x_right) / 2.0;
-        let arrows: Vec<(f64, bool)> = if level.occupancy > 1.5 {
-            vec![(centre - 6.0, true), (centre + 6.0, false)]
+    // Electrons: up and down arrows, and a shared occupancy written beside them.
+    let marks = electron_marks(level.occupancy);
+    let centre = (level.x_left + level.x_right) / 2.0;
+    if let Some(text) = &marks.fraction {
+        let _ = writeln!(
+            svg,
+            "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"end\" fill=\"{ink}\">{}</text>",
+            number(level.x_right - 1.0),
+            number(level.y - 4.0),
+            number(options.font_size * 0.6),
+            escape_xml(text)
+        );
+    }
+    let offsets: &[f64] = if marks.arrows.len() == 2 {
+        &[-6.0, 6.0]
+    } else {
+        &[0.0]
+    };
+    for (&offset, &up) in offsets.iter().zip(&marks.arrows) {
+        let x = centre + offset;
+        let (tail, head, back) = if up {
+            (level.y + 10.0, level.y - 10.0, 5.0)
         } else {
-            vec![(centre, true)]
+            (level.y - 10.0, level.y + 10.0, -5.0)
         };
-        for (x, up) in arrows {
-            let (tail, head, back) = if up {
-                (level.y + 10.0, level.y - 10.0, 5.0)
-            } else {
-                (level.y - 10.0, level.y + 10.0, -5.0)
-            };
-            let _ = writeln!(
-                svg,
-                "<path d=\"M {x} {t} L {x} {h} M {l} {b} L {x} {h} L {r} {b}\" fill=\"none\" stroke=\"{ink}\" stroke-width=\"1.6\"/>",
-                x = number(x),
-                t = number(tail),
-                h = number(head),
-                l = number(x - 3.5),
-                r = number(x + 3.5),
-                b = number(head + back)
-            );
-        }
+        let _ = writeln!(
+            svg,
+            "<path d=\"M {x} {t} L {x} {h} M {l} {b} L {x} {h} L {r} {b}\" fill=\"none\" stroke=\"{ink}\" stroke-width=\"1.6\"/>",
+            x = number(x),
+            t = number(tail),
+            h = number(head),
+            l = number(x - 3.5),
+            r = number(x + 3.5),
+            b = number(head + back)
+        );
     }
     if level.label_x.is_finite() {
         let bar_end = if ladder == 0 {
