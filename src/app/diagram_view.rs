@@ -4,7 +4,9 @@
 //! the accessibility tree, named by its label.
 
 use diptych::diagram::layout::{Caption, Diagram, Level};
-use diptych::diagram::style::{electron_marks, format_energy, link_opacity, link_width};
+use diptych::diagram::style::{
+    electron_marks, format_energy, frontier_tag, link_opacity, link_width,
+};
 use eframe::egui::{self, Align2, Color32, FontId, Pos2, Rect, Sense, Stroke, Vec2};
 
 use super::theme::{ACCENT, level_colour};
@@ -267,7 +269,9 @@ fn draw_level(
         // Correlation lines leave from the bar's inner end: the tag sits on a patch of the
         // panel's background so that the lines pass behind it.
         let tag = painter.layout_no_wrap(
-            if level.is_homo { "HOMO" } else { "LUMO" }.to_string(),
+            frontier_tag(level.is_homo, level.is_lumo, level.occupancy)
+                .unwrap_or_default()
+                .to_string(),
             FontId::proportional(9.0),
             faint,
         );

@@ -93,8 +93,32 @@ pub fn label_runs(label: &str) -> Vec<(String, Script)> {
     runs
 }
 
+/// The frontier tag of a level: "SOMO" for a highest occupied level that is partly filled
+/// (an open shell), "HOMO" or "LUMO" otherwise; None for other levels.
+pub fn frontier_tag(is_homo: bool, is_lumo: bool, occupancy: f64) -> Option<&'static str> {
+    if is_homo {
+        Some(if occupancy < 2.0 - WHOLE_ELECTRON {
+            "SOMO"
+        } else {
+            "HOMO"
+        })
+    } else if is_lumo {
+        Some("LUMO")
+    } else {
+        None
+    }
+}
+
 #[cfg(test)]
 mod tests {
+    #[test]
+    fn an_open_shell_is_tagged_somo() {
+        assert_eq!(frontier_tag(true, false, 2.0), Some("HOMO"));
+        assert_eq!(frontier_tag(true, false, 0.5), Some("SOMO"));
+        assert_eq!(frontier_tag(false, true, 0.0), Some("LUMO"));
+        assert_eq!(frontier_tag(false, false, 2.0), None);
+    }
+
     #[test]
     fn electrons_are_drawn_as_the_level_holds_them() {
         assert!(electron_marks(0.0).arrows.is_empty());

@@ -7,7 +7,8 @@ use std::fmt::Write;
 
 use super::layout::{Caption, Diagram, Level, Link};
 use super::style::{
-    Script, electron_marks, format_energy, label_runs, level_rgb, link_opacity, link_width, to_grey,
+    Script, electron_marks, format_energy, frontier_tag, label_runs, level_rgb, link_opacity,
+    link_width, to_grey,
 };
 
 /// Export choices (DESIGN §5.3).
@@ -482,7 +483,7 @@ fn write_level(
             number(x),
             number(level.y - 4.0),
             number(options.font_size * 0.6),
-            if level.is_homo { "HOMO" } else { "LUMO" }
+            frontier_tag(level.is_homo, level.is_lumo, level.occupancy).unwrap_or_default()
         );
     }
 }
