@@ -151,6 +151,11 @@ pub(crate) fn colour(rgb: [u8; 3], greyscale: bool) -> String {
     format!("#{r:02x}{g:02x}{b:02x}")
 }
 
+/// Vertical shift that centres a line of text on its y (SVG 1.1 has no
+/// dominant-baseline="central": 0.35 em is about half the cap height of common sans fonts, common
+/// practice, no source).
+const CENTRE_DY: &str = "0.35em";
+
 const INK: [u8; 3] = [34, 34, 34];
 const FAINT: [u8; 3] = [130, 130, 130];
 
@@ -269,7 +274,7 @@ pub fn to_svg(diagram: &Diagram, options: &SvgOptions) -> String {
     for tick in &diagram.ticks {
         let _ = writeln!(
             svg,
-            "<line x1=\"{}\" y1=\"{y}\" x2=\"{}\" y2=\"{y}\"/><text x=\"{}\" y=\"{y}\" stroke=\"none\" font-size=\"{}\" text-anchor=\"end\" dominant-baseline=\"central\">{}</text>",
+            "<line x1=\"{}\" y1=\"{y}\" x2=\"{}\" y2=\"{y}\"/><text x=\"{}\" y=\"{y}\" stroke=\"none\" font-size=\"{}\" text-anchor=\"end\" dy=\"{CENTRE_DY}\">{}</text>",
             number(diagram.axis_x - 6.0),
             number(diagram.axis_x),
             number(diagram.axis_x - 10.0),
@@ -463,28 +468,35 @@ fn write_level(
         };
         let _ = writeln!(
             svg,
-            "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"{anchor}\" dominant-baseline=\"central\" fill=\"{ink}\" xml:space=\"preserve\">{content}</text>",
+            "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"{anchor}\" dy=\"{CENTRE_DY}\" fill=\"{ink}\" xml:space=\"preserve\">{content}</text>",
             number(level.label_x),
             number(level.label_y),
             number(options.font_size)
         );
     }
     if level.is_homo || level.is_lumo {
-        // Correlation lines leave from here: a white halo (painted under the glyphs) keeps
-        // the tag legible where they pass.
+        // Correlation lines leave from here: a white halo under the glyphs keeps the tag
+        // legible where they pass.
         let (x, anchor) = if ladder == 0 {
             (level.x_right + 5.0, "start")
         } else {
             (level.x_left - 5.0, "end")
         };
-        let _ = writeln!(
-            svg,
-            "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"{anchor}\" fill=\"{faint}\" stroke=\"#ffffff\" stroke-width=\"3\" stroke-linejoin=\"round\" paint-order=\"stroke\">{}</text>",
-            number(x),
-            number(level.y - 4.0),
-            number(options.font_size * 0.6),
-            frontier_tag(level.is_homo, level.is_lumo, level.occupancy).unwrap_or_default()
-        );
+        let tag = frontier_tag(level.is_homo, level.is_lumo, level.occupancy).unwrap_or_default();
+        // SVG 1.1 has no paint-order: the halo is a white-stroked copy drawn first.
+        for paint in [
+            "fill=\"#ffffff\" stroke=\"#ffffff\" stroke-width=\"3\" stroke-linejoin=\"round\""
+                .to_string(),
+            format!("fill=\"{faint}\""),
+        ] {
+            let _ = writeln!(
+                svg,
+                "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"{anchor}\" {paint}>{tag}</text>",
+                number(x),
+                number(level.y - 4.0),
+                number(options.font_size * 0.6),
+            );
+        }
     }
 }
 
