@@ -78,8 +78,8 @@ fn every_demo_svg_parses_as_xml_and_as_svg_and_renders_ink() {
         let diagram = diagram_of(&file, None);
         for options in &variants {
             let svg = export_svg(&diagram, options).expect("valid options");
-            // SVG 1.1 only: these SVG 2 attributes are ignored by some renderers (labels
-            // then pile up), W3C SVG 1.1 Second Edition has neither.
+            // Attributes some renderers ignore (labels then pile up): paint-order is SVG 2
+            // only; dominant-baseline is in SVG 1.1 but not honoured everywhere.
             for attribute in ["dominant-baseline", "paint-order"] {
                 assert!(!svg.contains(attribute), "{}: {attribute}", file.display());
             }

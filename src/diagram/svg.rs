@@ -151,8 +151,8 @@ pub(crate) fn colour(rgb: [u8; 3], greyscale: bool) -> String {
     format!("#{r:02x}{g:02x}{b:02x}")
 }
 
-/// Vertical shift that centres a line of text on its y (SVG 1.1 has no
-/// dominant-baseline="central": 0.35 em is about half the cap height of common sans fonts, common
+/// Vertical shift that centres a line of text on its y (instead of
+/// dominant-baseline="central", which several renderers ignore): 0.35 em is about half the cap height of common sans fonts, common
 /// practice, no source).
 const CENTRE_DY: &str = "0.35em";
 
