@@ -137,23 +137,16 @@ pub fn show(
             FontId::proportional(15.0),
             ink,
         );
-        if ladder.hidden_above > 0 {
-            painter.text(
-                map.point(ladder.title_x, diagram.axis_top - 16.0),
-                Align2::CENTER_CENTER,
-                format!("+{} higher level(s) not shown", ladder.hidden_above),
-                FontId::proportional(10.0),
-                faint,
-            );
-        }
-        if ladder.hidden_below > 0 {
-            painter.text(
-                map.point(ladder.title_x, diagram.axis_bottom + 16.0),
-                Align2::CENTER_CENTER,
-                format!("+{} lower level(s) not shown", ladder.hidden_below),
-                FontId::proportional(10.0),
-                faint,
-            );
+        for (note, y) in ladder.hidden_notes().iter().zip(diagram.hidden_note_ys()) {
+            if let Some(note) = note {
+                painter.text(
+                    map.point(ladder.title_x, y),
+                    Align2::CENTER_CENTER,
+                    note,
+                    FontId::proportional(10.0),
+                    faint,
+                );
+            }
         }
         for level in &ladder.levels {
             let this = LevelRef {

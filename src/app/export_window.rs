@@ -27,6 +27,8 @@ pub struct ExportPanel {
     pub options: SvgOptions,
     pub format: ExportFormat,
     pub dpi: f64,
+    /// Export the zoomed energy window of the screen instead of the whole diagram.
+    pub zoomed: bool,
     /// The preview for (options, diagram revision): the image, or why there is none.
     preview: Option<(SvgOptions, u64, Result<egui::TextureHandle, String>)>,
 }
@@ -38,6 +40,7 @@ impl Default for ExportPanel {
             options: SvgOptions::default(),
             format: ExportFormat::Svg,
             dpi: 300.0,
+            zoomed: false,
             preview: None,
         }
     }
@@ -124,11 +127,12 @@ pub fn show(ctx: &egui::Context, state: &mut AppState, dialogs: &Dialogs) {
             options_form(ui, state);
             ui.separator();
             let show_energies = state.project.view.show_energies;
-            if let Some(diagram) = &state.diagram {
-                let revision = state.diagram_revision;
+            if let Some(diagram) = state.diagram_to_export().map(std::borrow::Cow::into_owned) {
+                // The whole and the zoomed diagram are different previews.
+                let revision = 2 * state.diagram_revision + u64::from(state.export.zoomed);
                 state
                     .export
-                    .refresh_preview(ui.ctx(), diagram, revision, show_energies);
+                    .refresh_preview(ui.ctx(), &diagram, revision, show_energies);
             }
             match &state.export.preview {
                 Some((_, _, Err(error))) => {
@@ -160,6 +164,13 @@ pub fn show(ctx: &egui::Context, state: &mut AppState, dialogs: &Dialogs) {
 }
 
 fn options_form(ui: &mut egui::Ui, state: &mut AppState) {
+    if state.energy_window.is_some() {
+        ui.checkbox(
+            &mut state.export.zoomed,
+            "Export the zoomed energy window (otherwise the whole diagram)",
+        )
+        .on_hover_text("A zoomed figure says how many levels it leaves out above and below.");
+    }
     let panel = &mut state.export;
     egui::Grid::new("export options")
         .num_columns(2)

@@ -282,16 +282,33 @@ impl AppState {
     /// Lays the diagram out again (after a new analysis, or new titles or threshold).
     pub fn rebuild_diagram(&mut self) {
         self.diagram_revision += 1;
-        let options = DiagramOptions {
-            titles: self.project.titles.clone(),
-            link_threshold: self.project.view.link_threshold,
-            energy_window: self.energy_window,
-            ..DiagramOptions::default()
-        };
+        let options = self.diagram_options(self.energy_window);
         self.diagram = self
             .analysis
             .as_ref()
             .map(|analysis| diagram_for(analysis, &options));
+    }
+
+    fn diagram_options(&self, energy_window: Option<(f64, f64)>) -> DiagramOptions {
+        DiagramOptions {
+            titles: self.project.titles.clone(),
+            link_threshold: self.project.view.link_threshold,
+            energy_window,
+            ..DiagramOptions::default()
+        }
+    }
+
+    /// The diagram an export draws: the one on screen, or, while the screen is zoomed and
+    /// the export window does not ask for the zoomed window, the whole diagram (a zoom
+    /// never crops an export by surprise; a zoomed export says what it leaves out).
+    pub fn diagram_to_export(&self) -> Option<std::borrow::Cow<'_, Diagram>> {
+        let shown = self.diagram.as_ref()?;
+        if self.energy_window.is_none() || self.export.zoomed {
+            return Some(std::borrow::Cow::Borrowed(shown));
+        }
+        let analysis = self.analysis.as_ref()?;
+        let whole = diagram_for(analysis, &self.diagram_options(None));
+        Some(std::borrow::Cow::Owned(whole))
     }
 
     /// Replaces the document with a file's contents; on failure the current document stays.
@@ -393,7 +410,7 @@ impl AppState {
     /// Writes the diagram on screen with the export window's options, as SVG or PNG by
     /// the file's extension (atomically).
     pub fn export_diagram(&mut self, path: PathBuf) {
-        let Some(diagram) = &self.diagram else {
+        let Some(diagram) = self.diagram_to_export().map(std::borrow::Cow::into_owned) else {
             self.error_dialog = Some("There is no diagram to export yet.".into());
             return;
         };
@@ -414,7 +431,7 @@ impl AppState {
         };
         let rendered = self
             .export
-            .render(diagram, self.project.view.show_energies, format);
+            .render(&diagram, self.project.view.show_energies, format);
         match rendered {
             Ok(bytes) => self.write_export(&path, &bytes, "the diagram"),
             Err(message) => {

@@ -437,6 +437,29 @@ fn exporting_writes_the_diagram_on_screen_as_svg() {
 }
 
 #[test]
+fn a_zoomed_screen_exports_the_whole_diagram_unless_asked() {
+    let mut harness = harness();
+    wait_for_analysis(&mut harness);
+    let folder = tempfile::tempdir().unwrap();
+    {
+        let state = &mut harness.state_mut().state;
+        state.energy_window = Some((-18.0, -12.0));
+        state.rebuild_diagram();
+    }
+    let whole = folder.path().join("whole.svg");
+    harness.state_mut().state.export_diagram(whole.clone());
+    let svg = std::fs::read_to_string(&whole).unwrap();
+    assert!(svg.contains("<tspan>2a</tspan>"), "2a1 is in the export");
+    assert!(!svg.contains("lower level(s) not shown"), "nothing below left out");
+    harness.state_mut().state.export.zoomed = true;
+    let zoomed = folder.path().join("zoomed.svg");
+    harness.state_mut().state.export_diagram(zoomed.clone());
+    let svg = std::fs::read_to_string(&zoomed).unwrap();
+    assert!(!svg.contains("<tspan>2a</tspan>"));
+    assert!(svg.contains("+1 lower level(s) not shown"), "the figure says so");
+}
+
+#[test]
 fn flattening_a_pyramidal_template_moves_the_lone_pair_level() {
     let mut harness = harness();
     wait_for_analysis(&mut harness);

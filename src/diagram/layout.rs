@@ -166,7 +166,25 @@ impl Caption {
     }
 }
 
+impl Ladder {
+    /// The notes on levels outside the energy window ("+2 higher level(s) not shown"),
+    /// above and below the axis; drawn by the window and the SVG alike.
+    pub fn hidden_notes(&self) -> [Option<String>; 2] {
+        [
+            (self.hidden_above > 0)
+                .then(|| format!("+{} higher level(s) not shown", self.hidden_above)),
+            (self.hidden_below > 0)
+                .then(|| format!("+{} lower level(s) not shown", self.hidden_below)),
+        ]
+    }
+}
+
 impl Diagram {
+    /// Where a ladder's hidden-level notes go: above the axis top and below its bottom.
+    pub fn hidden_note_ys(&self) -> [f64; 2] {
+        [self.axis_top - 16.0, self.axis_bottom + 16.0]
+    }
+
     /// Vertical position of an energy (higher energy, smaller y).
     pub fn y_of(&self, energy_ev: f64) -> f64 {
         y_of(energy_ev, self.energy_min, self.energy_max)

@@ -335,6 +335,19 @@ pub fn to_svg(diagram: &Diagram, options: &SvgOptions) -> String {
             number(options.font_size * 1.3),
             escape_xml(&ladder.title)
         );
+        // Levels outside the energy window are said, never dropped silently.
+        for (note, y) in ladder.hidden_notes().iter().zip(diagram.hidden_note_ys()) {
+            if let Some(note) = note {
+                let _ = writeln!(
+                    svg,
+                    "<text x=\"{}\" y=\"{}\" font-size=\"{}\" text-anchor=\"middle\" dy=\"{CENTRE_DY}\" fill=\"{faint}\">{}</text>",
+                    number(ladder.title_x),
+                    number(y),
+                    number(options.font_size * 0.65),
+                    escape_xml(note)
+                );
+            }
+        }
         for level in &ladder.levels {
             write_level(&mut svg, level, index, options, &ink, &faint);
         }
