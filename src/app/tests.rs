@@ -450,13 +450,19 @@ fn a_zoomed_screen_exports_the_whole_diagram_unless_asked() {
     harness.state_mut().state.export_diagram(whole.clone());
     let svg = std::fs::read_to_string(&whole).unwrap();
     assert!(svg.contains("<tspan>2a</tspan>"), "2a1 is in the export");
-    assert!(!svg.contains("lower level(s) not shown"), "nothing below left out");
+    assert!(
+        !svg.contains("lower level(s) not shown"),
+        "nothing below left out"
+    );
     harness.state_mut().state.export.zoomed = true;
     let zoomed = folder.path().join("zoomed.svg");
     harness.state_mut().state.export_diagram(zoomed.clone());
     let svg = std::fs::read_to_string(&zoomed).unwrap();
     assert!(!svg.contains("<tspan>2a</tspan>"));
-    assert!(svg.contains("+1 lower level(s) not shown"), "the figure says so");
+    assert!(
+        svg.contains("+1 lower level(s) not shown"),
+        "the figure says so"
+    );
 }
 
 #[test]
