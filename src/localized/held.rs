@@ -174,15 +174,19 @@ pub fn held_orbitals(
             .filter(|h| h.lone_pair.atom == atom)
             .map(|h| h.vector.clone())
             .collect();
-        let before = same_atom.len();
-        let scale = column.norm();
-        let independent = vector.norm() > INDEPENDENT_FRACTION * scale
-            && push_orthonormal(&mut same_atom, vector, INDEPENDENT_FRACTION);
-        if !independent || same_atom.len() == before {
+        if vector.norm() <= INDEPENDENT_FRACTION * column.norm() {
+            notes.push(format!(
+                "lone pair {} of atom {} is not held: it has almost no p part (an s lone pair)",
+                candidate.lone_pair.index + 1,
+                atom
+            ));
+            continue;
+        }
+        if !push_orthonormal(&mut same_atom, vector, INDEPENDENT_FRACTION) {
             notes.push(format!(
                 "lone pair {} of atom {} is not held: its {} adds no direction its centre's earlier held orbitals lack",
                 candidate.lone_pair.index + 1,
-                atom + 1,
+                atom,
                 match convention {
                     HoldConvention::FirstOrder => "p orbital",
                     HoldConvention::Hybrid => "hybrid",
