@@ -18,8 +18,10 @@ const BAR_WIDTH: f64 = 56.0;
 const BAR_GAP: f64 = 10.0;
 /// Extra space between two different sets drawn in one row.
 const GROUP_GAP: f64 = 22.0;
-/// Sets closer than this vertically (layout units) are drawn in one row.
-const ROW_MERGE: f64 = 8.0;
+/// Sets closer than this vertically (layout units) are drawn in one row: their electron
+/// arrows (±10 units) would otherwise cross the other set's bar (diborane's σ(B–H) and
+/// 3c(B–H–B), 0.26 eV or 9.6 units apart).
+const ROW_MERGE: f64 = 12.0;
 /// Smallest vertical distance between two labels of one ladder.
 pub const LABEL_SPACING: f64 = 15.0;
 
