@@ -4,6 +4,7 @@
 
 pub mod analysis;
 pub mod chem;
+pub mod csv;
 pub mod diagram;
 pub mod eht;
 pub mod hybrid;

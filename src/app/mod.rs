@@ -36,6 +36,7 @@ use diptych::project::Opened;
 use eframe::egui;
 
 use menus::Dialogs;
+pub use screenshot::ScreenshotTarget;
 use screenshot::ScreenshotTask;
 use state::AppState;
 
@@ -53,7 +54,7 @@ impl DiptychApp {
     pub fn new(
         context: egui::Context,
         opened: Option<(Opened, PathBuf)>,
-        screenshot: Option<PathBuf>,
+        screenshot: Option<ScreenshotTarget>,
     ) -> Self {
         DiptychApp {
             state: AppState::new(context, opened),
@@ -457,7 +458,10 @@ impl eframe::App for DiptychApp {
 }
 
 /// Opens the main window; with `screenshot`, saves a PNG of it and closes.
-pub fn run(opened: Option<(Opened, PathBuf)>, screenshot: Option<PathBuf>) -> Result<(), String> {
+pub fn run(
+    opened: Option<(Opened, PathBuf)>,
+    screenshot: Option<ScreenshotTarget>,
+) -> Result<(), String> {
     let result_slot = screenshot
         .as_ref()
         .map(|_| screenshot::ResultSlot::default());

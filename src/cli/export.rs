@@ -136,7 +136,7 @@ pub(super) fn export(args: &ExportArgs) -> ExitCode {
         diptych::diagram::export_svg(&diagram, &svg_options).map(String::into_bytes)
     };
     match bytes {
-        Ok(bytes) => write_output(output, &bytes),
+        Ok(bytes) => write_output(output, &bytes, args.force),
         Err(error) => bad_input(error),
     }
 }

@@ -10,6 +10,7 @@ use diptych::orbital_map::{
     MapOptions, MapSvgOptions, Plane, compute_map, default_plane, find_orbital, map_to_svg,
 };
 
+use super::output::{check_replaceable, write_output};
 use super::{MethodArgs, analyse_file};
 
 /// Arguments of `diptych map`.
@@ -125,11 +126,8 @@ pub(super) fn map(args: &MapArgs) -> ExitCode {
             output.display()
         ));
     }
-    if output.exists() && !args.force {
-        return bad_input(format!(
-            "'{}' exists; add --force to replace it",
-            output.display()
-        ));
+    if let Err(code) = check_replaceable(output, args.force) {
+        return code;
     }
     let analysis = match analyse_file(&args.file, &args.method) {
         Ok((_, analysis)) => analysis,
@@ -148,8 +146,5 @@ pub(super) fn map(args: &MapArgs) -> ExitCode {
         Err(error) => return bad_input(error),
     };
     let svg = map_to_svg(&map, &MapSvgOptions::default());
-    match diptych::chem::io::write_atomically(output, svg.as_bytes()) {
-        Ok(()) => ExitCode::SUCCESS,
-        Err(error) => bad_input(format!("cannot write '{}': {error}", output.display())),
-    }
+    write_output(output, svg.as_bytes(), args.force)
 }

@@ -38,7 +38,11 @@ pub(super) fn report(args: &ReportArgs) -> ExitCode {
         return code;
     }
     match analyse_file(&args.file, &args.method) {
-        Ok((_, analysis)) => write_output(&args.output, render(&analysis, format).as_bytes()),
+        Ok((_, analysis)) => write_output(
+            &args.output,
+            render(&analysis, format).as_bytes(),
+            args.force,
+        ),
         Err(code) => code,
     }
 }

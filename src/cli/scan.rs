@@ -11,6 +11,7 @@ use diptych::scan::svg::{WalshSvgOptions, walsh_svg};
 use diptych::scan::{Coordinate, ScanProgress, ScanRequest, csv::to_csv, run_scan};
 
 use super::open_for_cli;
+use super::output::{check_replaceable, write_output};
 
 /// The scan's coordinate: exactly one of these. Atom indices are 0-based, in file order,
 /// as in the JSON report.
@@ -138,11 +139,8 @@ pub(super) fn scan(args: &ScanArgs) -> ExitCode {
         Ok(kind) => kind,
         Err(message) => return bad_input(message),
     };
-    if args.output.exists() && !args.force {
-        return bad_input(format!(
-            "'{}' exists; add --force to replace it",
-            args.output.display()
-        ));
+    if let Err(code) = check_replaceable(&args.output, args.force) {
+        return code;
     }
     let opened = match open_for_cli(&args.file, args.charge) {
         Ok(opened) => opened,
@@ -183,8 +181,5 @@ pub(super) fn scan(args: &ScanArgs) -> ExitCode {
             walsh_svg(&scan, &options)
         }
     };
-    match diptych::chem::io::write_atomically(&args.output, text.as_bytes()) {
-        Ok(()) => ExitCode::SUCCESS,
-        Err(error) => bad_input(format!("cannot write '{}': {error}", args.output.display())),
-    }
+    write_output(&args.output, text.as_bytes(), args.force)
 }

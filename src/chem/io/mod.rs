@@ -1,8 +1,10 @@
-//! Reading and writing molecule files: XYZ and MDL molfile V2000.
+//! Reading and writing molecule files: XYZ and MDL molfile V2000; `write` is the one
+//! writer of every output file.
 //!
 //! Every parse error names the 1-based line number and what was expected there.
 
 pub mod molfile;
+pub mod write;
 pub mod xyz;
 
 use std::path::Path;
@@ -10,6 +12,7 @@ use std::path::Path;
 use thiserror::Error;
 
 use super::molecule::Molecule;
+pub use write::{Overwrite, WriteError, check_target, write_file};
 
 /// A file that could not be read as a molecule.
 #[derive(Debug, Clone, PartialEq, Error)]
@@ -99,30 +102,8 @@ pub fn read_molecule_file(path: &Path) -> Result<Parsed, ParseError> {
     }
 }
 
-/// Writes `contents` to `path` atomically: a temporary file in the same folder, flushed,
-/// then renamed over the target, so a crash never leaves a half-written file.
-pub fn write_atomically(path: &Path, contents: &[u8]) -> std::io::Result<()> {
-    use std::io::Write;
-    let folder = match path.parent() {
-        Some(parent) if !parent.as_os_str().is_empty() => parent.to_path_buf(),
-        _ => std::path::PathBuf::from("."),
-    };
-    let file_name = path
-        .file_name()
-        .ok_or_else(|| std::io::Error::new(std::io::ErrorKind::InvalidInput, "no file name"))?;
-    let temporary = folder.join(format!(
-        ".{}.{}.tmp",
-        file_name.to_string_lossy(),
-        std::process::id()
-    ));
-    let result = (|| {
-        let mut file = std::fs::File::create(&temporary)?;
-        file.write_all(contents)?;
-        file.sync_all()?;
-        std::fs::rename(&temporary, path)
-    })();
-    if result.is_err() {
-        let _ = std::fs::remove_file(&temporary);
-    }
-    result
+/// Writes `contents` to `path`, replacing what is there: [`write::write_file`] with
+/// [`Overwrite::Replace`] (temporary file, then a rename that keeps the old permissions).
+pub fn write_atomically(path: &Path, contents: &[u8]) -> Result<(), WriteError> {
+    write::write_file(path, contents, Overwrite::Replace)
 }
