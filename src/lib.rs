@@ -9,6 +9,7 @@ pub mod diagram;
 pub mod eht;
 pub mod hybrid;
 pub mod localized;
+pub mod message;
 pub mod orbital_map;
 pub mod project;
 pub mod report;

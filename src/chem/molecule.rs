@@ -20,9 +20,18 @@ pub const MIN_SEPARATION: f64 = 0.5;
 pub const MAX_COORDINATE: f64 = 1.0e4;
 /// Bonded when d < BOND_TOLERANCE × (r_a + r_b).
 pub const BOND_TOLERANCE: f64 = 1.15;
+/// Longest molecule name, ladder title or orbital label a document may hold (characters):
+/// long enough for any real name, short enough that no figure or report chokes on it.
+pub const MAX_NAME_CHARACTERS: usize = 200;
+/// Most bonds one atom may have: 12 is the most neighbours of close packing; no molecule
+/// with elements up to Kr needs more (common practice, no source).
+pub const MAX_BONDS_PER_ATOM: usize = 12;
+/// Bond orders a bond list may hold: single, double, triple.
+pub const MAX_BOND_ORDER: u8 = 3;
 
 /// One atom: element and Cartesian position in Å.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Atom {
     pub element: Element,
     pub position: Vector3<f64>,
@@ -39,6 +48,7 @@ impl Atom {
 
 /// A bond between atoms `a` < `b` (0-based) with a formal order (1, 2, 3).
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Bond {
     pub a: usize,
     pub b: usize,
@@ -93,10 +103,23 @@ pub enum MoleculeError {
     BondInRing { a: usize, b: usize },
     #[error("{what} of {value} is not possible")]
     ImpossibleValue { what: &'static str, value: f64 },
+    #[error("the name has {count} characters; the limit is {MAX_NAME_CHARACTERS}")]
+    NameTooLong { count: usize },
+    #[error("bond {a}–{b} names an atom that does not exist (the atoms are 0 to {last})")]
+    BondAtomOutOfRange { a: usize, b: usize, last: usize },
+    #[error("bond {a}–{a} joins atom {a} to itself")]
+    BondToItself { a: usize },
+    #[error("bond {a}–{b} is listed twice; each pair of atoms may be bonded once")]
+    DuplicateBond { a: usize, b: usize },
+    #[error("bond {a}–{b} has order {order}; the orders are 1 to {MAX_BOND_ORDER}")]
+    BadBondOrder { a: usize, b: usize, order: u8 },
+    #[error("atom {atom} has {count} bonds; the limit is {MAX_BONDS_PER_ATOM} per atom")]
+    TooManyBonds { atom: usize, count: usize },
 }
 
 /// A molecule: atoms, net charge, a name and its bonds.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Molecule {
     pub name: String,
     pub atoms: Vec<Atom>,
@@ -252,6 +275,43 @@ impl Molecule {
                 electrons,
                 charge: self.charge,
             });
+        }
+        let count = self.name.chars().count();
+        if count > MAX_NAME_CHARACTERS {
+            return Err(MoleculeError::NameTooLong { count });
+        }
+        self.validate_bonds()
+    }
+
+    /// The bond list: atoms that exist, no atom bonded to itself, each pair once, orders
+    /// 1 to [`MAX_BOND_ORDER`], at most [`MAX_BONDS_PER_ATOM`] bonds per atom.
+    pub fn validate_bonds(&self) -> Result<(), MoleculeError> {
+        let count = self.atoms.len();
+        let mut per_atom = vec![0usize; count];
+        let mut seen = std::collections::HashSet::new();
+        for bond in &self.bonds {
+            let (a, b) = (bond.a, bond.b);
+            if a >= count || b >= count {
+                let last = count.saturating_sub(1);
+                return Err(MoleculeError::BondAtomOutOfRange { a, b, last });
+            }
+            if a == b {
+                return Err(MoleculeError::BondToItself { a });
+            }
+            if !seen.insert((a.min(b), a.max(b))) {
+                return Err(MoleculeError::DuplicateBond { a, b });
+            }
+            if !(1..=MAX_BOND_ORDER).contains(&bond.order) {
+                let order = bond.order;
+                return Err(MoleculeError::BadBondOrder { a, b, order });
+            }
+            for atom in [a, b] {
+                per_atom[atom] += 1;
+                if per_atom[atom] > MAX_BONDS_PER_ATOM {
+                    let count = per_atom[atom];
+                    return Err(MoleculeError::TooManyBonds { atom, count });
+                }
+            }
         }
         Ok(())
     }

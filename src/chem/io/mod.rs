@@ -95,7 +95,10 @@ pub fn read_molecule_file(path: &Path) -> Result<Parsed, ParseError> {
         .file_stem()
         .and_then(|s| s.to_str())
         .unwrap_or("molecule")
-        .to_string();
+        .chars()
+        // A name taken from the file name is cut to the limit, not refused.
+        .take(super::molecule::MAX_NAME_CHARACTERS)
+        .collect::<String>();
     match format {
         MoleculeFormat::Xyz => xyz::parse_xyz(&text, &name),
         MoleculeFormat::Molfile => molfile::parse_molfile(&text, &name),
