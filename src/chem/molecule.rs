@@ -885,6 +885,54 @@ mod tests {
         assert_eq!(ion.formula(), "HN2−");
     }
 
+    /// A centre with `n` hydrogens on a sphere of 1.1 Å (golden-spiral points), all bonded.
+    fn hedgehog(n: usize) -> Molecule {
+        let mut atoms = vec![Atom::new(Element::C, [0.0, 0.0, 0.0])];
+        for k in 0..n {
+            let z = 1.0 - 2.0 * (k as f64 + 0.5) / n as f64;
+            let r = (1.0 - z * z).sqrt();
+            let phi = k as f64 * std::f64::consts::PI * (3.0 - 5f64.sqrt());
+            atoms.push(Atom::new(
+                Element::H,
+                [1.1 * r * phi.cos(), 1.1 * r * phi.sin(), 1.1 * z],
+            ));
+        }
+        let mut molecule = Molecule::new("hedgehog", atoms, 0);
+        molecule.bonds = (1..=n).map(|h| Bond::new(0, h, 1)).collect();
+        molecule
+    }
+
+    #[test]
+    fn bond_lists_are_checked() {
+        assert_eq!(hedgehog(12).validate(), Ok(()));
+        assert_eq!(
+            hedgehog(13).validate(),
+            Err(MoleculeError::TooManyBonds { atom: 0, count: 13 })
+        );
+        let mut twice = hedgehog(4);
+        twice.bonds.push(Bond {
+            a: 1,
+            b: 0,
+            order: 1,
+        });
+        assert_eq!(
+            twice.validate(),
+            Err(MoleculeError::DuplicateBond { a: 1, b: 0 })
+        );
+        let mut triple_plus = hedgehog(4);
+        triple_plus.bonds[0].order = 9;
+        assert!(matches!(
+            triple_plus.validate(),
+            Err(MoleculeError::BadBondOrder { order: 9, .. })
+        ));
+        let mut long_name = hedgehog(4);
+        long_name.name = "x".repeat(MAX_NAME_CHARACTERS + 1);
+        assert_eq!(
+            long_name.validate(),
+            Err(MoleculeError::NameTooLong { count: 201 })
+        );
+    }
+
     #[test]
     fn validation_names_the_atoms() {
         let mut m = methane();

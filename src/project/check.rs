@@ -4,6 +4,7 @@
 //! the setting by its path in the file and says the range (common practice, no source).
 
 use crate::chem::molecule::MAX_NAME_CHARACTERS;
+use crate::localized::held::HeldLonePairs;
 use crate::symmetry::MAX_TOLERANCE;
 
 use super::{Project, ProjectError};
@@ -21,7 +22,40 @@ pub(super) fn check(project: &Project) -> Result<(), ProjectError> {
         .map_err(|error| ProjectError::InvalidMolecule(error.to_string()))?;
     check_texts(project)?;
     check_numbers(project)?;
+    check_held_lone_pairs(project)?;
     check_overrides(project)
+}
+
+/// Most lone pairs one atom can carry (an octet), so lone-pair indices are 0 to 3.
+const MAX_LONE_PAIRS_PER_ATOM: usize = 4;
+
+/// Atom indices of the held lone pairs name atoms of the molecule.
+fn check_held_lone_pairs(project: &Project) -> Result<(), ProjectError> {
+    let count = project.molecule.len();
+    let last = count.saturating_sub(1);
+    let field = "settings.held_lone_pairs";
+    let (atoms, indices): (Vec<usize>, Vec<usize>) = match &project.settings.held_lone_pairs {
+        HeldLonePairs::Atoms(atoms) => (atoms.clone(), Vec::new()),
+        HeldLonePairs::Chosen(pairs) => pairs.iter().map(|p| (p.atom, p.index)).unzip(),
+        HeldLonePairs::Central | HeldLonePairs::All => return Ok(()),
+    };
+    if let Some(atom) = atoms.iter().find(|&&atom| atom >= count) {
+        let range = format!("an atom index 0 to {last}");
+        return Err(out_of_range(
+            &format!("{field} names atom {atom}, which"),
+            "not in the molecule",
+            &range,
+        ));
+    }
+    if let Some(index) = indices.iter().find(|&&i| i >= MAX_LONE_PAIRS_PER_ATOM) {
+        let range = format!("0 to {}", MAX_LONE_PAIRS_PER_ATOM - 1);
+        return Err(out_of_range(
+            &format!("a lone-pair index in {field}"),
+            index,
+            &range,
+        ));
+    }
+    Ok(())
 }
 
 fn out_of_range(field: &str, value: impl std::fmt::Display, range: &str) -> ProjectError {
