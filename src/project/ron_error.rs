@@ -125,6 +125,7 @@ fn plain_types(text: &str) -> String {
     }
     escaped(
         &out.replace('`', "'")
+            .replace("Expected a matrix array", "expected 3 coordinates")
             .replace("struct ", "a group ")
             .replace("enum ", "a choice "),
     )
