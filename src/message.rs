@@ -4,7 +4,7 @@
 //! ellipsis, so that a message stays one short line whatever the input.
 
 /// At most this many characters of a token are quoted in a message.
-pub const SHOWN_CHARACTERS: usize = 60;
+pub const SHOWN_CHARACTERS: usize = 40;
 
 /// `text` fit for a one-line message: escaped and cut to [`SHOWN_CHARACTERS`].
 pub fn shown(text: &str) -> String {

@@ -26,6 +26,9 @@ pub const MAX_NAME_CHARACTERS: usize = 200;
 /// Most bonds one atom may have: 12 is the most neighbours of close packing; no molecule
 /// with elements up to Kr needs more (common practice, no source).
 pub const MAX_BONDS_PER_ATOM: usize = 12;
+/// Largest net charge magnitude accepted: far beyond any molecular ion, small enough that
+/// the electron count stays meaningful (common practice, no source).
+pub const MAX_CHARGE: i32 = 100;
 /// Bond orders a bond list may hold: single, double, triple.
 pub const MAX_BOND_ORDER: u8 = 3;
 
@@ -101,8 +104,14 @@ pub enum MoleculeError {
     NotBonded { a: usize, b: usize },
     #[error("bond {a}–{b} lies in a ring; its fragments cannot be moved apart")]
     BondInRing { a: usize, b: usize },
+    #[error(
+        "atoms {a} and {b} are not bonded to each other but are joined through other atoms, so neither side can move alone; scan a bond, or a distance between separate fragments"
+    )]
+    JoinedElsewhere { a: usize, b: usize },
     #[error("{what} of {value} is not possible")]
     ImpossibleValue { what: &'static str, value: f64 },
+    #[error("the charge {charge} is out of range (it must be -{MAX_CHARGE} to {MAX_CHARGE})")]
+    ChargeOutOfRange { charge: i32 },
     #[error("the name has {count} characters; the limit is {MAX_NAME_CHARACTERS}")]
     NameTooLong { count: usize },
     #[error("bond {a}–{b} names an atom that does not exist (the atoms are 0 to {last})")]
@@ -268,6 +277,11 @@ impl Molecule {
                     return Err(MoleculeError::CoincidentAtoms { a, b, distance });
                 }
             }
+        }
+        if self.charge.unsigned_abs() > MAX_CHARGE.unsigned_abs() {
+            return Err(MoleculeError::ChargeOutOfRange {
+                charge: self.charge,
+            });
         }
         let electrons = self.electron_count();
         if electrons <= 0 {
@@ -443,6 +457,9 @@ impl Molecule {
     /// joined by another path (a ring).
     fn moving_side(&self, i: usize, j: usize) -> Result<(Vec<bool>, bool), MoleculeError> {
         let side_j = self.fragment(j, i);
+        if side_j[i] && self.bond(i, j).is_none() {
+            return Err(MoleculeError::JoinedElsewhere { a: i, b: j });
+        }
         if side_j[i] {
             return Err(MoleculeError::BondInRing { a: i, b: j });
         }

@@ -8,7 +8,9 @@ use std::process::ExitCode;
 use clap::{ArgGroup, Args};
 
 use diptych::scan::svg::{WalshSvgOptions, walsh_svg};
-use diptych::scan::{Coordinate, ScanProgress, ScanRequest, csv::to_csv, run_scan};
+use diptych::scan::{
+    Coordinate, MAX_POINTS, MIN_POINTS, ScanProgress, ScanRequest, csv::to_csv, run_scan,
+};
 
 use super::open_for_cli;
 use super::output::{check_replaceable, write_output};
@@ -56,8 +58,8 @@ pub(super) struct ScanArgs {
     #[arg(long, allow_hyphen_values = true)]
     pub(super) to: f64,
     /// Number of points, both ends included (2 to 10000).
-    #[arg(long)]
-    pub(super) steps: usize,
+    #[arg(long, allow_hyphen_values = true)]
+    pub(super) steps: i64,
     /// Output file: .csv (table) or .svg (Walsh diagram).
     #[arg(short, long, value_name = "OUT.csv|OUT.svg")]
     pub(super) output: PathBuf,
@@ -146,13 +148,20 @@ pub(super) fn scan(args: &ScanArgs) -> ExitCode {
         Ok(opened) => opened,
         Err(code) => return code,
     };
+    // A negative count is read, so that the message can say the range.
+    let Ok(steps) = usize::try_from(args.steps) else {
+        return bad_input(format!(
+            "{} points: a scan has {MIN_POINTS} to {MAX_POINTS} points",
+            args.steps
+        ));
+    };
     let settings = opened.project.settings.clone();
     let molecule = &opened.project.molecule;
     let request = ScanRequest {
         coordinate,
         from: args.from,
         to: args.to,
-        steps: args.steps,
+        steps,
     };
     // All validation happens here, before any analysis.
     if let Err(error) = request.plan(molecule) {

@@ -73,8 +73,10 @@ pub fn read_text(path: &Path) -> Result<String, ParseError> {
     text_from_bytes(&bytes)
 }
 
-/// Bytes to text; a NUL byte or invalid UTF-8 means a binary file.
+/// Bytes to text; a NUL byte or invalid UTF-8 means a binary file. A UTF-8 byte-order
+/// mark (EF BB BF, which some editors write) is skipped.
 pub fn text_from_bytes(bytes: &[u8]) -> Result<String, ParseError> {
+    let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
     if bytes.contains(&0) {
         return Err(ParseError::NotText("it contains NUL bytes".into()));
     }
