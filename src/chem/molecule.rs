@@ -20,6 +20,11 @@ pub const MIN_SEPARATION: f64 = 0.5;
 pub const MAX_COORDINATE: f64 = 1.0e4;
 /// Bonded when d < BOND_TOLERANCE × (r_a + r_b).
 pub const BOND_TOLERANCE: f64 = 1.15;
+/// Two hydrogens are bonded closer than this (Å). Cordero's r(H) = 0.31 Å comes from X–H
+/// bonds, so 1.15 × 2 r(H) = 0.713 Å would miss H₂ itself (0.741 Å, NIST CCCBDB, from
+/// memory) and H₃⁺ (0.87 Å); hydrogens that are not bonded sit 1.5 Å or more apart in
+/// molecules (geminal H···H in water and methane). Common practice, no source.
+pub const H_H_BOND_LIMIT: f64 = 1.0;
 /// Longest molecule name, ladder title or orbital label a document may hold (characters):
 /// long enough for any real name, short enough that no figure or report chokes on it.
 pub const MAX_NAME_CHARACTERS: usize = 200;
@@ -49,13 +54,17 @@ impl Atom {
     }
 }
 
-/// A bond between atoms `a` < `b` (0-based) with a formal order (1, 2, 3).
+/// A bond between atoms `a` < `b` (0-based) with a formal order (1, 2, 3). An aromatic
+/// bond (from a molfile's bond type 4) keeps its flag for drawing and reports; its `order`
+/// is that of one Kekulé structure (1 or 2).
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
 #[serde(deny_unknown_fields)]
 pub struct Bond {
     pub a: usize,
     pub b: usize,
     pub order: u8,
+    #[serde(default, skip_serializing_if = "std::ops::Not::not")]
+    pub aromatic: bool,
 }
 
 impl Bond {
@@ -65,6 +74,7 @@ impl Bond {
             a: a.min(b),
             b: a.max(b),
             order,
+            aromatic: false,
         }
     }
 
@@ -120,7 +130,9 @@ pub enum MoleculeError {
     BondToItself { a: usize },
     #[error("bond {a}–{b} is listed twice; each pair of atoms may be bonded once")]
     DuplicateBond { a: usize, b: usize },
-    #[error("bond {a}–{b} has order {order}; the orders are 1 to {MAX_BOND_ORDER}")]
+    #[error(
+        "bond {a}–{b} has order {order}; the orders are 1 to {MAX_BOND_ORDER} (1 or 2 for an aromatic bond)"
+    )]
     BadBondOrder { a: usize, b: usize, order: u8 },
     #[error("atom {atom} has {count} bonds; the limit is {MAX_BONDS_PER_ATOM} per atom")]
     TooManyBonds { atom: usize, count: usize },
@@ -157,21 +169,26 @@ impl Molecule {
         self.atoms.is_empty()
     }
 
+    /// The distance (Å) below which atoms `a` and `b` are bonded: 1.15 × (r_a + r_b), and
+    /// [`H_H_BOND_LIMIT`] for two hydrogens.
+    pub fn bond_limit(&self, a: usize, b: usize) -> f64 {
+        let (ea, eb) = (self.atoms[a].element, self.atoms[b].element);
+        if ea == Element::H && eb == Element::H {
+            return H_H_BOND_LIMIT;
+        }
+        BOND_TOLERANCE * (ea.covalent_radius() + eb.covalent_radius())
+    }
+
     /// Replaces the bond list with single bonds between atoms closer than
-    /// 1.15 × (r_a + r_b). Orders of bonds that survive are kept.
+    /// [`Molecule::bond_limit`]. Orders and aromatic flags of bonds that survive are kept.
     pub fn perceive_bonds(&mut self) {
         let old = std::mem::take(&mut self.bonds);
         for a in 0..self.atoms.len() {
             for b in a + 1..self.atoms.len() {
-                let limit = BOND_TOLERANCE
-                    * (self.atoms[a].element.covalent_radius()
-                        + self.atoms[b].element.covalent_radius());
+                let limit = self.bond_limit(a, b);
                 if self.distance_unchecked(a, b) < limit {
-                    let order = old
-                        .iter()
-                        .find(|bond| bond.a == a && bond.b == b)
-                        .map_or(1, |bond| bond.order);
-                    self.bonds.push(Bond::new(a, b, order));
+                    let kept = old.iter().find(|bond| bond.a == a && bond.b == b);
+                    self.bonds.push(kept.copied().unwrap_or(Bond::new(a, b, 1)));
                 }
             }
         }
@@ -182,6 +199,19 @@ impl Molecule {
     /// with the fewest unsaturated partners (common practice, no source). Gives C=O in
     /// formaldehyde, C≡N in HCN and a Kekulé structure for benzene. Deterministic.
     pub fn perceive_bond_orders(&mut self) {
+        self.raise_orders(|_| true);
+    }
+
+    /// A Kekulé structure for the aromatic bonds: the same greedy matching as
+    /// [`Molecule::perceive_bond_orders`], raising aromatic bonds only, so that explicit
+    /// single and double bonds of a file are never changed.
+    pub fn kekulize_aromatic(&mut self) {
+        if self.bonds.iter().any(|bond| bond.aromatic) {
+            self.raise_orders(|bond| bond.aromatic);
+        }
+    }
+
+    fn raise_orders(&mut self, may_raise: impl Fn(&Bond) -> bool) {
         let mut free: Vec<i32> = self
             .atoms
             .iter()
@@ -192,7 +222,12 @@ impl Molecule {
             free[bond.b] -= bond.order as i32;
         }
         loop {
-            let open = |bond: &Bond| free[bond.a] > 0 && free[bond.b] > 0;
+            let open = |bond: &Bond| {
+                may_raise(bond)
+                    && free[bond.a] > 0
+                    && free[bond.b] > 0
+                    && (!bond.aromatic || bond.order < 2)
+            };
             let candidates = |atom: usize| {
                 self.bonds
                     .iter()
@@ -315,7 +350,8 @@ impl Molecule {
             if !seen.insert((a.min(b), a.max(b))) {
                 return Err(MoleculeError::DuplicateBond { a, b });
             }
-            if !(1..=MAX_BOND_ORDER).contains(&bond.order) {
+            let highest = if bond.aromatic { 2 } else { MAX_BOND_ORDER };
+            if !(1..=highest).contains(&bond.order) {
                 let order = bond.order;
                 return Err(MoleculeError::BadBondOrder { a, b, order });
             }
@@ -931,6 +967,7 @@ mod tests {
             a: 1,
             b: 0,
             order: 1,
+            aromatic: false,
         });
         assert_eq!(
             twice.validate(),

@@ -12,7 +12,7 @@ use diptych::diagram::{
 };
 
 use super::output::{check_replaceable, extension_among, write_output};
-use super::{MethodArgs, analyse_file};
+use super::{MethodArgs, analyse_file, require_orbitals};
 
 /// Which ladders go into the figure.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, ValueEnum)]
@@ -139,6 +139,9 @@ pub(super) fn export(args: &ExportArgs) -> ExitCode {
         Ok(pair) => pair,
         Err(code) => return code,
     };
+    if let Err(code) = require_orbitals(&analysis) {
+        return code;
+    }
     let mut titles = opened.project.titles.clone();
     if let Some([left, right]) = args.names.as_deref() {
         titles.delocalized = left.clone();

@@ -12,7 +12,7 @@ use diptych::orbital_map::{
 };
 
 use super::output::{check_replaceable, write_output};
-use super::{MethodArgs, analyse_file};
+use super::{MethodArgs, analyse_file, require_orbitals};
 
 /// Arguments of `diptych map`.
 #[derive(Args, Debug)]
@@ -141,6 +141,9 @@ pub(super) fn map(args: &MapArgs) -> ExitCode {
         Ok((_, analysis)) => analysis,
         Err(code) => return code,
     };
+    if let Err(code) = require_orbitals(&analysis) {
+        return code;
+    }
     let reference = match find_orbital(&analysis, &args.orbital) {
         Ok(reference) => reference,
         Err(error) => return bad_input(error),

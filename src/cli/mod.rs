@@ -241,6 +241,23 @@ pub(super) fn run_analysis(opened: &Opened, settings: &Settings) -> Result<Analy
     Ok(analysis)
 }
 
+/// A file output needs orbitals: without them (the orbital stage failed, e.g. more
+/// electrons than spin orbitals) there is nothing to draw or tabulate, so the command
+/// stops with exit code 2 and writes nothing.
+pub(super) fn require_orbitals(analysis: &Analysis) -> Result<(), ExitCode> {
+    if !analysis.orbitals.is_empty() {
+        return Ok(());
+    }
+    let reason = analysis
+        .errors
+        .first()
+        .map_or("no stage gave a reason", |error| error.message.as_str());
+    eprintln!(
+        "diptych: nothing to write: the analysis has no molecular orbitals ({reason}); no file was written"
+    );
+    Err(ExitCode::from(2))
+}
+
 fn analyze(file: &Path, format: Format, method: &MethodArgs) -> ExitCode {
     let analysis = match analyse_file(file, method) {
         Ok((_, analysis)) => analysis,

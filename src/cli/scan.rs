@@ -127,6 +127,9 @@ fn output_kind(path: &Path) -> Result<Output, String> {
     }
 }
 
+/// At most this many failed points are listed one by one.
+const SHOWN_FAILURES: usize = 10;
+
 fn bad_input(message: impl std::fmt::Display) -> ExitCode {
     eprintln!("diptych: {message}");
     ExitCode::from(2)
@@ -172,13 +175,26 @@ pub(super) fn scan(args: &ScanArgs) -> ExitCode {
         Ok(scan) => scan,
         Err(error) => return bad_input(error),
     };
-    for p in scan.failed_points() {
+    let failed = scan.failed_points();
+    for &p in failed.iter().take(SHOWN_FAILURES) {
         let point = &scan.points[p];
         eprintln!(
             "diptych: point {p} ({}) failed: {}",
             point.value,
             point.failure.as_deref().unwrap_or("")
         );
+    }
+    if failed.len() > SHOWN_FAILURES {
+        eprintln!(
+            "diptych: … and {} more points failed",
+            failed.len() - SHOWN_FAILURES
+        );
+    }
+    if failed.len() == scan.points.len() {
+        return bad_input(format!(
+            "nothing to write: all {} points of the scan failed; no file was written",
+            scan.points.len()
+        ));
     }
     let text = match kind {
         Output::Csv => to_csv(&scan),
