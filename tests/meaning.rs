@@ -28,8 +28,7 @@ fn diptych(args: &[&str]) -> Output {
 #[test]
 fn a_2d_molfile_is_refused_asking_for_3d_coordinates() {
     let error = read_molecule_file(&input("methane_2d.mol"))
-        .err()
-        .expect("refused")
+        .expect_err("refused")
         .to_string();
     assert!(error.starts_with("line 2:"), "{error}");
     assert!(error.contains("needs 3D coordinates"), "{error}");
