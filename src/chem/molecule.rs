@@ -34,8 +34,9 @@ pub const MAX_BONDS_PER_ATOM: usize = 12;
 /// Largest net charge magnitude accepted: far beyond any molecular ion, small enough that
 /// the electron count stays meaningful (common practice, no source).
 pub const MAX_CHARGE: i32 = 100;
-/// Bond orders a bond list may hold: single, double, triple.
-pub const MAX_BOND_ORDER: u8 = 3;
+/// Highest bond order a bond list may hold: quadruple (distance perception gives C₂ one,
+/// each carbon filling its valence of 4 on its one partner; metal–metal bonds reach it).
+pub const MAX_BOND_ORDER: u8 = 4;
 
 /// One atom: element and Cartesian position in Å.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
@@ -54,7 +55,7 @@ impl Atom {
     }
 }
 
-/// A bond between atoms `a` < `b` (0-based) with a formal order (1, 2, 3). An aromatic
+/// A bond between atoms `a` < `b` (0-based) with a formal order (1 to 4). An aromatic
 /// bond (from a molfile's bond type 4) keeps its flag for drawing and reports; its `order`
 /// is that of one Kekulé structure (1 or 2).
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
