@@ -165,9 +165,16 @@ pub fn save(state: &mut AppState, dialogs: &Dialogs) {
     }
 }
 
-/// Handles Ctrl+O, Ctrl+S and Ctrl+Shift+S.
+/// Handles Ctrl+N, Ctrl+O, Ctrl+S, Ctrl+Shift+S, Ctrl+E, undo and redo, and Escape.
 pub fn handle_shortcuts(ui: &egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
     use egui::{Key, KeyboardShortcut, Modifiers};
+    let new = KeyboardShortcut::new(Modifiers::COMMAND, Key::N);
+    if ui.input_mut(|input| input.consume_shortcut(&new)) {
+        state.new_document();
+    }
+    if ui.input_mut(|input| input.consume_key(Modifiers::NONE, Key::Escape)) {
+        close_topmost_window(state);
+    }
     let save_as = KeyboardShortcut::new(Modifiers::COMMAND | Modifiers::SHIFT, Key::S);
     let save_shortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::S);
     let open = KeyboardShortcut::new(Modifiers::COMMAND, Key::O);
@@ -195,11 +202,29 @@ pub fn handle_shortcuts(ui: &egui::Ui, state: &mut AppState, dialogs: &Dialogs) 
     }
 }
 
+/// Escape closes one window: the error message first, then the export, settings and
+/// Walsh scan windows, in that order (the question about unsaved changes has its own
+/// Cancel and is left alone).
+fn close_topmost_window(state: &mut AppState) {
+    if state.error_dialog.take().is_some() {
+        return;
+    }
+    for open in [
+        &mut state.export.open,
+        &mut state.settings_open,
+        &mut state.walsh.open,
+    ] {
+        if std::mem::take(open) {
+            return;
+        }
+    }
+}
+
 /// File and View menus.
 pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
     egui::MenuBar::new().ui(ui, |ui| {
         ui.menu_button("File", |ui| {
-            if ui.button("New").clicked() {
+            if ui.button("New  (Ctrl+N)").clicked() {
                 state.new_document();
                 ui.close();
             }
@@ -325,12 +350,8 @@ pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
         });
         ui.menu_button("View", |ui| {
             ui.checkbox(&mut state.camera.show_labels, "Atom labels");
-            if ui
-                .checkbox(&mut state.project.view.dark_theme, "Dark theme")
-                .changed()
-            {
-                state.dirty = true;
-            }
+            // The theme is a preference, not an edit: it marks nothing unsaved.
+            ui.checkbox(&mut state.project.view.dark_theme, "Dark theme");
             ui.checkbox(&mut state.walsh.open, "Walsh scan window");
             ui.checkbox(&mut state.frame_timer.visible, "Frame time (debug)");
             if ui.button("Reset view").clicked() {

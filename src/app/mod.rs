@@ -7,6 +7,7 @@ mod builder;
 mod diagram_view;
 mod export_window;
 mod frame_timer;
+mod guard;
 mod history;
 mod inspector;
 mod lewis_section;
@@ -29,6 +30,8 @@ mod worker;
 
 #[cfg(test)]
 mod tests;
+#[cfg(test)]
+mod window_tests;
 
 use std::path::PathBuf;
 

@@ -40,7 +40,7 @@ pub(super) struct ExportArgs {
     #[arg(short, long, value_name = "OUT.svg|OUT.png")]
     output: PathBuf,
     /// Titles of the two ladders (delocalized, localized); neither may be empty.
-    #[arg(long, num_args = 2, value_names = ["LEFT", "RIGHT"])]
+    #[arg(long, num_args = 2, value_names = ["LEFT", "RIGHT"], allow_hyphen_values = true)]
     names: Option<Vec<String>>,
     #[command(flatten)]
     method: MethodArgs,
