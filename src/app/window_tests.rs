@@ -74,3 +74,37 @@ fn escape_closes_the_topmost_window() {
     harness.step();
     assert!(!harness.state().state.walsh.open);
 }
+
+#[test]
+fn the_builder_keeps_the_parent_selected_and_edits_bonds() {
+    let mut harness = harness();
+    harness.step();
+    harness.get_by_label("Build").click();
+    harness.run_steps(2);
+    // Ammonia's nitrogen; two clicks add two hydrogens to it (formerly the second went
+    // on the first new hydrogen).
+    harness.state_mut().state.selected_atom = Some(0);
+    harness.run_steps(1);
+    harness.get_by_label("Add bonded atom").click();
+    harness.run_steps(1);
+    harness.get_by_label("Add bonded atom").click();
+    harness.run_steps(1);
+    let molecule = &harness.state().state.project.molecule;
+    assert_eq!(molecule.len(), 6);
+    assert_eq!(harness.state().state.selected_atom, Some(0));
+    assert!(molecule.bond(0, 4).is_some() && molecule.bond(0, 5).is_some());
+    // The bond row: N–H1 removed ("none"), then made again with order 1.
+    harness.state_mut().state.builder.bond_partner = 1;
+    harness.state_mut().state.builder.bond_order = 0;
+    harness.run_steps(1);
+    harness.get_by_label("Set bond").click();
+    harness.run_steps(1);
+    assert!(harness.state().state.project.molecule.bond(0, 1).is_none());
+    assert!(harness.state().state.dirty, "a bond edit is an edit");
+    harness.state_mut().state.builder.bond_order = 2;
+    harness.run_steps(1);
+    harness.get_by_label("Set bond").click();
+    harness.run_steps(1);
+    let bond = harness.state().state.project.molecule.bond(0, 1).copied();
+    assert_eq!(bond.map(|b| b.order), Some(2));
+}

@@ -421,7 +421,7 @@ impl Molecule {
             / mass
     }
 
-    fn check_indices(&self, indices: &[usize]) -> Result<(), MoleculeError> {
+    pub(crate) fn check_indices(&self, indices: &[usize]) -> Result<(), MoleculeError> {
         for &index in indices {
             if index >= self.atoms.len() {
                 return Err(MoleculeError::AtomIndexOutOfRange {
@@ -642,61 +642,6 @@ impl Molecule {
                 bond.b -= 1;
             }
         }
-        Ok(())
-    }
-
-    /// Adds an atom of `element` bonded to `anchor`, at the sum of the covalent radii,
-    /// along the anchor's free valence direction (away from its existing bonds; common
-    /// practice, no source). Returns the new atom's index.
-    pub fn add_bonded_atom(
-        &mut self,
-        anchor: usize,
-        element: Element,
-    ) -> Result<usize, MoleculeError> {
-        self.check_indices(&[anchor])?;
-        let centre = self.atoms[anchor].position;
-        let units: Vec<Vector3<f64>> = self
-            .neighbours(anchor)
-            .iter()
-            .map(|&n| self.atoms[n].position - centre)
-            .filter(|v| v.norm() > 1e-9)
-            .map(|v| v.normalize())
-            .collect();
-        let sum: Vector3<f64> = units.iter().sum();
-        let direction = if units.is_empty() {
-            Vector3::x()
-        } else if sum.norm() > 0.1 {
-            -sum.normalize()
-        } else if units.len() == 1 {
-            any_perpendicular(&units[0])
-        } else {
-            // Bonds that cancel (linear or planar-symmetric): go perpendicular to them.
-            let normal = units[0].cross(&units[1]);
-            if normal.norm() > 1e-6 {
-                normal.normalize()
-            } else {
-                any_perpendicular(&units[0])
-            }
-        };
-        let length = self.atoms[anchor].element.covalent_radius() + element.covalent_radius();
-        self.atoms.push(Atom {
-            element,
-            position: centre + direction * length,
-        });
-        let index = self.atoms.len() - 1;
-        self.bonds.push(Bond::new(anchor, index, 1));
-        Ok(index)
-    }
-
-    /// Changes the element of atom `index`; bond orders are perceived again from the
-    /// usual valences.
-    pub fn set_element(&mut self, index: usize, element: Element) -> Result<(), MoleculeError> {
-        self.check_indices(&[index])?;
-        self.atoms[index].element = element;
-        for bond in &mut self.bonds {
-            bond.order = 1;
-        }
-        self.perceive_bond_orders();
         Ok(())
     }
 
