@@ -15,6 +15,7 @@ mod menus;
 mod molecule_panel;
 mod orbital_map_view;
 mod parameter_editor;
+mod path_prompt;
 mod recovery;
 mod scan_job;
 mod screenshot;
@@ -152,6 +153,7 @@ impl DiptychApp {
         );
         walsh_view::show(ui.ctx(), &mut self.state, &self.dialogs);
         export_window::show(ui.ctx(), &mut self.state, &self.dialogs);
+        self.dialogs.show_prompt(ui.ctx());
         self.error_dialog(ui);
 
         let now = ui.input(|input| input.time);

@@ -108,3 +108,26 @@ fn the_builder_keeps_the_parent_selected_and_edits_bonds() {
     let bond = harness.state().state.project.molecule.bond(0, 1).copied();
     assert_eq!(bond.map(|b| b.order), Some(2));
 }
+
+#[test]
+fn without_a_system_dialog_a_typed_path_opens_the_file() {
+    let mut harness = harness();
+    harness.step();
+    harness.state_mut().dialogs = super::menus::Dialogs::with_system_dialog(false);
+    harness.state().dialogs.ask_open();
+    harness.run_steps(2);
+    harness.get_by_label_contains("No system file dialog is available here");
+    let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("demo_molecules/water.xyz");
+    let field = harness.get_by_role_and_label(egui::accesskit::Role::TextInput, "Path");
+    field.focus();
+    field.type_text(&path.to_string_lossy());
+    harness.run_steps(2);
+    harness.get_by_label("OK").click();
+    harness.run_steps(3);
+    assert_eq!(harness.state().state.project.molecule.formula(), "H2O");
+    assert!(
+        harness
+            .query_by_label_contains("No system file dialog")
+            .is_none()
+    );
+}
