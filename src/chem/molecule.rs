@@ -853,10 +853,9 @@ mod tests {
     fn builder_edits_keep_bonds_consistent() {
         let mut m = methane();
         let extra = m.add_bonded_atom(1, Element::H).unwrap();
-        // Along the C–H1 axis, away from carbon, at r(H) + r(H) (Cordero 2008).
-        let along = (m.atoms[extra].position - m.atoms[1].position).normalize();
-        let axis = (m.atoms[1].position - m.atoms[0].position).normalize();
-        assert!((along.dot(&axis) - 1.0).abs() < 1e-12);
+        // Beside the single C–H1 bond at the tetrahedral angle (src/chem/edit.rs), at
+        // r(H) + r(H) (Cordero 2008).
+        assert!((m.angle(0, 1, extra).unwrap() - 109.471_220_634_490_7).abs() < 1e-9);
         assert!((m.distance(1, extra).unwrap() - 0.62).abs() < 1e-12);
         m.remove_atom(2).unwrap();
         assert_eq!(m.atoms.len(), 5);
