@@ -174,7 +174,7 @@ impl Project {
             ProjectError::Write { message, .. } => failed(message),
             other => other,
         })?;
-        write_atomically(path, text.as_bytes()).map_err(|error| failed(error.to_string()))
+        write_atomically(path, text.as_bytes()).map_err(|error| failed(error.reason()))
     }
 }
 

@@ -552,8 +552,9 @@ impl AppState {
             Ok(()) => self.status = format!("Exported {}", path.display()),
             Err(error) => {
                 self.error_dialog = Some(format!(
-                    "Could not export {what}.\n\n{}: {error}",
-                    path.display()
+                    "Could not export {what}.\n\n{}: {}",
+                    path.display(),
+                    error.reason()
                 ))
             }
         }

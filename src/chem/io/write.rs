@@ -42,6 +42,15 @@ pub enum WriteError {
 }
 
 impl WriteError {
+    /// What went wrong, without the path (for messages that name the path already).
+    pub fn reason(&self) -> String {
+        match self {
+            WriteError::Unwritable { reason, .. } => reason.clone(),
+            WriteError::Exists(_) => "a file of that name exists".into(),
+            WriteError::IsFolder(_) => "it is a folder".into(),
+        }
+    }
+
     fn unwritable(path: &Path, reason: impl std::fmt::Display) -> WriteError {
         WriteError::Unwritable {
             path: path.display().to_string(),
