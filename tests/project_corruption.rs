@@ -2,7 +2,7 @@
 //! random (characters replaced, ranges deleted or repeated, text inserted) either loads or
 //! is refused with a one-line message, never a panic. The library is tried on many
 //! corruptions; the binary on fewer, where a refusal must be exit code 2 with one line on
-//! stderr and a load must analyse (exit 0).
+//! stderr and a load must analyse (exit 0), and a run that never ends fails the test.
 
 use std::process::Command;
 
@@ -113,10 +113,7 @@ proptest! {
         let folder = tempfile::tempdir().expect("temp");
         let path = folder.path().join("corrupt.diptych.ron");
         std::fs::write(&path, apply(&written_project(), &edits)).expect("written");
-        let output = Command::new(env!("CARGO_BIN_EXE_diptych"))
-            .args(["analyze", &path.to_string_lossy()])
-            .output()
-            .expect("diptych runs");
+        let output = run_without_hanging(&path);
         let stderr = String::from_utf8_lossy(&output.stderr);
         prop_assert!(!stderr.contains("panicked"), "{stderr}");
         match output.status.code() {
@@ -125,6 +122,27 @@ proptest! {
             other => prop_assert!(false, "exit {other:?}: {stderr}"),
         }
     }
+}
+
+/// `diptych analyze FILE`, killed and failed if it has not finished after a generous
+/// minute: a hang detector, not a measure of speed (an analysis of ammonia takes ms).
+fn run_without_hanging(path: &std::path::Path) -> std::process::Output {
+    use std::process::Stdio;
+    let mut child = Command::new(env!("CARGO_BIN_EXE_diptych"))
+        .args(["analyze", &path.to_string_lossy()])
+        .stdout(Stdio::piped())
+        .stderr(Stdio::piped())
+        .spawn()
+        .expect("diptych runs");
+    let start = std::time::Instant::now();
+    while child.try_wait().expect("waits").is_none() {
+        if start.elapsed() > std::time::Duration::from_secs(60) {
+            let _ = child.kill();
+            panic!("diptych hung on {}", path.display());
+        }
+        std::thread::sleep(std::time::Duration::from_millis(5));
+    }
+    child.wait_with_output().expect("output")
 }
 
 #[test]
