@@ -21,7 +21,7 @@ use crate::symmetry::{self, Symmetry, SymmetrySettings, SymmetrySummary};
 /// Method options of the document. Every field has a default so that older project files
 /// load; new options are added as new fields with `#[serde(default)]`.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(default)]
+#[serde(default, deny_unknown_fields)]
 pub struct Settings {
     /// Lone-pair mixing switch (DESIGN §4.6): on = full solution.
     pub lone_pair_mixing: bool,

@@ -4,10 +4,12 @@
 
 pub mod analysis;
 pub mod chem;
+pub mod csv;
 pub mod diagram;
 pub mod eht;
 pub mod hybrid;
 pub mod localized;
+pub mod message;
 pub mod orbital_map;
 pub mod project;
 pub mod report;

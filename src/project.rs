@@ -2,6 +2,15 @@
 //! bonds, the analysis settings, the two ladder titles and view options, with a `version`
 //! field. Stored as RON (Rusty Object Notation, an open text format) and written
 //! atomically (temporary file + rename), so a crash never leaves half a project.
+//!
+//! Reading is strict: a field this build does not know is an error naming the field and
+//! its line (a misspelled setting must never pass unnoticed; `ron_error.rs` says reading
+//! errors in plain words), and every value is range-checked before use (`check.rs`).
+
+mod check;
+mod ron_error;
+
+pub use check::{K_RANGE, MAX_SWEEPS};
 
 use std::path::Path;
 
@@ -24,7 +33,7 @@ pub const DEFAULT_LOCALIZED_TITLE: &str = "Localized (directed hybrids)";
 
 /// The user's names for the two ladders of the Diagram.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(default)]
+#[serde(default, deny_unknown_fields)]
 pub struct LadderTitles {
     pub delocalized: String,
     pub localized: String,
@@ -41,7 +50,7 @@ impl Default for LadderTitles {
 
 /// Display options kept with the document.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(default)]
+#[serde(default, deny_unknown_fields)]
 pub struct ViewOptions {
     pub show_energies: bool,
     /// Correlation lines below this weight are hidden.
@@ -61,6 +70,7 @@ impl Default for ViewOptions {
 
 /// Everything a user saves.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Project {
     pub version: u32,
     pub molecule: Molecule,
@@ -80,8 +90,14 @@ pub struct Project {
 pub enum ProjectError {
     #[error("cannot read the project: {0}")]
     Read(String),
-    #[error("the project file is damaged: {0}")]
-    Damaged(String),
+    #[error("line {line}, column {column}: {message}")]
+    Syntax {
+        line: usize,
+        column: usize,
+        message: String,
+    },
+    #[error("{0}")]
+    OutOfRange(String),
     #[error(
         "the project was written by a newer Diptych (format version {found}; this build reads up to {PROJECT_VERSION})"
     )]
@@ -113,14 +129,10 @@ impl Project {
         }
     }
 
-    /// Parses project text, checking the version first.
+    /// Parses project text, checking the version first and every value after.
     pub fn from_ron(text: &str) -> Result<Project, ProjectError> {
-        let probe: VersionProbe = ron::from_str(text).map_err(|error| {
-            ProjectError::Damaged(format!(
-                "no readable 'version' field ({})",
-                one_line(&error.to_string())
-            ))
-        })?;
+        let text = text.strip_prefix('\u{feff}').unwrap_or(text);
+        let probe: VersionProbe = ron::from_str(text).map_err(syntax)?;
         if probe.version == 0 {
             return Err(ProjectError::InvalidVersion);
         }
@@ -129,23 +141,8 @@ impl Project {
                 found: probe.version,
             });
         }
-        let project: Project = ron::from_str(text)
-            .map_err(|error| ProjectError::Damaged(one_line(&error.to_string())))?;
-        project
-            .molecule
-            .validate()
-            .map_err(|error| ProjectError::InvalidMolecule(error.to_string()))?;
-        for bond in &project.molecule.bonds {
-            if bond.a >= project.molecule.len()
-                || bond.b >= project.molecule.len()
-                || bond.a == bond.b
-            {
-                return Err(ProjectError::InvalidMolecule(format!(
-                    "bond {}–{} names an atom that does not exist",
-                    bond.a, bond.b
-                )));
-            }
-        }
+        let project: Project = ron::from_str(text).map_err(syntax)?;
+        check::check(&project)?;
         Ok(project)
     }
 
@@ -177,7 +174,7 @@ impl Project {
             ProjectError::Write { message, .. } => failed(message),
             other => other,
         })?;
-        write_atomically(path, text.as_bytes()).map_err(|error| failed(error.to_string()))
+        write_atomically(path, text.as_bytes()).map_err(|error| failed(error.reason()))
     }
 }
 
@@ -185,6 +182,16 @@ impl Project {
 pub fn is_project_path(path: &Path) -> bool {
     path.to_str()
         .is_some_and(|s| s.to_ascii_lowercase().ends_with(PROJECT_EXTENSION))
+}
+
+/// A RON reading error as line, column and plain words.
+fn syntax(error: ron::error::SpannedError) -> ProjectError {
+    let (line, column, message) = ron_error::plain(&error);
+    ProjectError::Syntax {
+        line,
+        column,
+        message: one_line(&message),
+    }
 }
 
 /// Error texts from RON can span lines; messages here are one line each.
@@ -257,7 +264,7 @@ mod tests {
         let cut = &text[..text.len() / 2];
         assert!(matches!(
             Project::from_ron(cut),
-            Err(ProjectError::Damaged(_))
+            Err(ProjectError::Syntax { .. })
         ));
         Ok(())
     }

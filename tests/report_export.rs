@@ -243,3 +243,70 @@ fn the_csv_reader_of_these_tests_rejects_broken_quoting() {
     assert!(parse_csv("a,\"b\r\n").is_err());
     assert!(parse_csv("a,\"b\"c\r\n").is_err());
 }
+
+/// The value cell of the molecule table's `name` row.
+fn csv_name_cell(records: &[Vec<String>]) -> String {
+    let row = records
+        .iter()
+        .find(|r| r[0] == "molecule" && r[2] == "property" && r[3] == "name")
+        .map(|r| r[1].clone())
+        .expect("name row");
+    records
+        .iter()
+        .find(|r| r[0] == "molecule" && r[1] == row && r[2] == "value")
+        .map(|r| r[3].clone())
+        .expect("name value")
+}
+
+#[test]
+fn csv_text_cells_never_start_a_spreadsheet_formula_and_numbers_stay_numbers() {
+    // The failing input of issue 18: a name that a spreadsheet would run as a formula.
+    for name in [
+        "=HYPERLINK(\"http://x\",\"NH3\")",
+        "+1+2",
+        "-2+3",
+        "@SUM(A1)",
+        "\tx",
+    ] {
+        let csv = to_csv(&ammonia_analysis(Some(name)));
+        let records = parse_csv(&csv).expect("valid RFC 4180");
+        assert_eq!(csv_name_cell(&records), format!("'{name}"), "{name:?}");
+        let negative_energies = records
+            .iter()
+            .filter(|r| r[0] == "canonical_mos" && r[2] == "energy_ev")
+            .filter(|r| r[3].starts_with('-') && r[3].parse::<f64>().is_ok())
+            .count();
+        assert!(negative_energies > 0, "negative energies are still numbers");
+    }
+}
+
+#[test]
+fn the_scan_csv_and_the_report_csv_share_line_ends() {
+    use diptych::scan::{Coordinate, ScanProgress, ScanRequest, csv::to_csv as scan_csv};
+    let analysis = ammonia_analysis(None);
+    let request = ScanRequest {
+        coordinate: Coordinate::Pyramidalize { centre: 0 },
+        from: 100.0,
+        to: 110.0,
+        steps: 2,
+    };
+    let scan = diptych::scan::run_scan(
+        &analysis.molecule,
+        &analysis.settings,
+        &request,
+        &ScanProgress::new(),
+    )
+    .expect("scan");
+    for csv in [scan_csv(&scan), to_csv(&analysis)] {
+        let bare_line_feeds = csv.matches('\n').count() - csv.matches("\r\n").count();
+        assert_eq!(bare_line_feeds, 0, "CRLF only");
+        assert!(parse_csv(&csv).is_ok());
+    }
+}
+
+#[test]
+fn markdown_shows_html_in_a_name_as_text() {
+    let markdown = to_markdown(&ammonia_analysis(Some("<img src=x onerror=alert(1)> & co")));
+    assert!(!markdown.contains("<img"), "{markdown}");
+    assert!(markdown.contains("&lt;img src=x onerror=alert(1)&gt; &amp; co"));
+}

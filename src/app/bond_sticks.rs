@@ -50,11 +50,16 @@ impl BondDrawing {
                 .bonds
                 .iter()
                 .filter(|bond| bond.a < atoms && bond.b < atoms)
+                // An aromatic bond is drawn as one and a half: a line and a dashed line.
                 .map(|bond| Stick {
                     a: bond.a,
                     b: bond.b,
-                    lines: u32::from(bond.order.max(1)),
-                    half: false,
+                    lines: if bond.aromatic {
+                        1
+                    } else {
+                        u32::from(bond.order.max(1))
+                    },
+                    half: bond.aromatic,
                 })
                 .collect(),
             stars: Vec::new(),
@@ -178,6 +183,20 @@ mod tests {
             order,
             index: order,
         }
+    }
+
+    #[test]
+    fn aromatic_bonds_of_a_file_are_drawn_as_one_and_a_half() {
+        let path = std::path::Path::new(env!("CARGO_MANIFEST_DIR"))
+            .join("tests/meaning_inputs/benzene_aromatic.mol");
+        let molecule = diptych::chem::io::read_molecule_file(&path)
+            .expect("benzene reads")
+            .molecule;
+        let drawing = BondDrawing::perceived(&molecule);
+        let ring: Vec<&Stick> = drawing.sticks.iter().filter(|s| s.b < 6).collect();
+        assert_eq!(ring.len(), 6);
+        assert!(ring.iter().all(|s| s.lines == 1 && s.half), "{ring:?}");
+        assert!(drawing.sticks.iter().filter(|s| s.b >= 6).all(|s| !s.half));
     }
 
     #[test]

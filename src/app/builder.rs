@@ -1,5 +1,6 @@
 //! The structure builder (DESIGN §2): an element palette, add a bonded atom along a free
-//! valence direction, change element, delete; shape templates AXn with a central and a
+//! valence direction (the parent stays selected), change element (its bond lengths reset),
+//! delete, add or remove a bond and set its order; shape templates AXn with a central and a
 //! ligand element and, for bent and pyramidal shapes, a live X–A–X angle. Every action is
 //! an ordinary document edit (undoable); the geometry comes from the library.
 
@@ -23,6 +24,9 @@ pub struct BuilderState {
     pub angle: f64,
     /// True while the document is the template last applied, so the angle edits it live.
     pub template_live: bool,
+    /// The other atom of the bond row (0-based) and the order to give that bond.
+    pub bond_partner: usize,
+    pub bond_order: u8,
 }
 
 impl Default for BuilderState {
@@ -34,6 +38,8 @@ impl Default for BuilderState {
             ligand: Element::H,
             angle: 107.0,
             template_live: false,
+            bond_partner: 0,
+            bond_order: 1,
         }
     }
 }
@@ -66,13 +72,13 @@ pub fn show(ui: &mut egui::Ui, state: &mut AppState) {
                     .clicked()
                     && let Some(anchor) = selected
                 {
-                    match state
+                    // The parent stays selected, so repeated clicks add its ligands.
+                    if let Err(error) = state
                         .project
                         .molecule
                         .add_bonded_atom(anchor, state.builder.element)
                     {
-                        Ok(index) => state.selected_atom = Some(index),
-                        Err(error) => state.status = error.to_string(),
+                        state.status = error.to_string();
                     }
                     state.builder.template_live = false;
                 }
@@ -100,6 +106,7 @@ pub fn show(ui: &mut egui::Ui, state: &mut AppState) {
                     delete_selected(state);
                 }
             });
+            bond_row(ui, state);
             ui.separator();
             ui.horizontal_wrapped(|ui| {
                 ui.label("Template");
@@ -133,6 +140,45 @@ pub fn show(ui: &mut egui::Ui, state: &mut AppState) {
                 }
             }
         });
+}
+
+/// Bond from the selected atom to another: its order (1 to 3), or "none" to remove it.
+fn bond_row(ui: &mut egui::Ui, state: &mut AppState) {
+    let Some(atom) = state
+        .selected_atom
+        .filter(|&a| a < state.project.molecule.len())
+    else {
+        return;
+    };
+    let last = state.project.molecule.len().saturating_sub(1);
+    ui.horizontal(|ui| {
+        let label = ui.label(format!("Bond from atom {atom} to atom"));
+        ui.add(egui::DragValue::new(&mut state.builder.bond_partner).range(0..=last))
+            .labelled_by(label.id);
+        let order = &mut state.builder.bond_order;
+        let name = |order: u8| match order {
+            0 => "none".to_string(),
+            n => format!("order {n}"),
+        };
+        egui::ComboBox::from_id_salt("bond order")
+            .selected_text(name(*order))
+            .show_ui(ui, |ui| {
+                for choice in 0..=3 {
+                    ui.selectable_value(order, choice, name(choice));
+                }
+            });
+        let partner = state.builder.bond_partner;
+        if ui
+            .add_enabled(partner != atom, egui::Button::new("Set bond"))
+            .clicked()
+        {
+            let (molecule, order) = (&mut state.project.molecule, state.builder.bond_order);
+            if let Err(error) = molecule.set_bond_order(atom, partner, order) {
+                state.status = error.to_string();
+            }
+            state.builder.template_live = false;
+        }
+    });
 }
 
 fn apply_template(state: &mut AppState) {

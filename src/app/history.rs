@@ -60,11 +60,35 @@ pub enum Change {
 pub fn classify(before: &Project, after: &Project) -> Change {
     if before.molecule != after.molecule || before.settings != after.settings {
         Change::Document
-    } else if before != after {
+    } else if !same_presentation(before, after) {
         Change::Presentation
     } else {
         Change::None
     }
+}
+
+/// Everything but the molecule and settings is equal, the theme aside: the theme is how
+/// the window looks, not part of the work, so it makes no undo step and no unsaved mark.
+/// Written out field by field, so that a new field must be placed here to compile.
+fn same_presentation(before: &Project, after: &Project) -> bool {
+    let Project {
+        version,
+        molecule: _,
+        settings: _,
+        titles,
+        view,
+        selected_orbital,
+    } = before;
+    let diptych::project::ViewOptions {
+        show_energies,
+        link_threshold,
+        dark_theme: _,
+    } = view;
+    *version == after.version
+        && *titles == after.titles
+        && *selected_orbital == after.selected_orbital
+        && *show_energies == after.view.show_energies
+        && *link_threshold == after.view.link_threshold
 }
 
 impl History {

@@ -1,11 +1,14 @@
 //! The menu bar and the file dialogs. Dialogs run on their own thread (rfd's portal
 //! dialogs block), and their answer comes back through a channel polled every frame.
+//! Where no system dialog can appear, an in-app path field asks instead (`path_prompt`).
 
+use std::cell::RefCell;
 use std::path::PathBuf;
 use std::sync::mpsc::{Receiver, Sender, channel};
 
 use eframe::egui;
 
+use super::path_prompt::{self, PathPrompt};
 use super::state::AppState;
 
 /// What a finished dialog asks for.
@@ -23,17 +26,69 @@ pub enum DialogAnswer {
 pub struct Dialogs {
     sender: Sender<DialogAnswer>,
     receiver: Receiver<DialogAnswer>,
+    /// False where no system file dialog can appear: the path is typed in the window.
+    system_dialog: bool,
+    prompt: RefCell<Option<PathPrompt>>,
 }
 
 impl Default for Dialogs {
     fn default() -> Self {
-        let (sender, receiver) = channel();
-        Dialogs { sender, receiver }
+        Dialogs::with_system_dialog(path_prompt::system_dialog_available())
     }
 }
 
 impl Dialogs {
+    pub fn with_system_dialog(system_dialog: bool) -> Dialogs {
+        let (sender, receiver) = channel();
+        Dialogs {
+            sender,
+            receiver,
+            system_dialog,
+            prompt: RefCell::new(None),
+        }
+    }
+
+    /// Without a system dialog, asks in the window instead; true when it did.
+    fn prompted(
+        &self,
+        title: &'static str,
+        text: String,
+        answer: fn(PathBuf) -> DialogAnswer,
+    ) -> bool {
+        if self.system_dialog {
+            return false;
+        }
+        *self.prompt.borrow_mut() = Some(PathPrompt {
+            title,
+            text,
+            answer,
+        });
+        true
+    }
+
+    /// Draws the in-app path field, if one is asked for, and passes its answer on.
+    pub fn show_prompt(&self, ctx: &egui::Context) {
+        let mut slot = self.prompt.borrow_mut();
+        let Some(prompt) = slot.as_mut() else {
+            return;
+        };
+        let (answer, open) = path_prompt::show(ctx, prompt);
+        if let Some(answer) = answer {
+            let _ = self.sender.send(answer);
+        }
+        if !open {
+            *slot = None;
+        }
+    }
+
     pub fn ask_open(&self) {
+        if self.prompted(
+            "Open a molecule or project",
+            String::new(),
+            DialogAnswer::Open,
+        ) {
+            return;
+        }
         let sender = self.sender.clone();
         std::thread::spawn(move || {
             let picked = rfd::FileDialog::new()
@@ -48,6 +103,10 @@ impl Dialogs {
     }
 
     pub fn ask_save_as(&self, suggested: String) {
+        let file_name = format!("{suggested}.diptych.ron");
+        if self.prompted("Save the project", file_name, DialogAnswer::SaveAs) {
+            return;
+        }
         let sender = self.sender.clone();
         std::thread::spawn(move || {
             let picked = rfd::FileDialog::new()
@@ -77,6 +136,10 @@ impl Dialogs {
     }
 
     pub fn ask_export_report(&self, suggested: String) {
+        let file_name = format!("{suggested}-report.md");
+        if self.prompted("Export the report", file_name, DialogAnswer::ExportReport) {
+            return;
+        }
         let sender = self.sender.clone();
         std::thread::spawn(move || {
             let picked = rfd::FileDialog::new()
@@ -128,6 +191,9 @@ impl Dialogs {
         filter: (&'static str, &'static [&'static str]),
         answer: fn(PathBuf) -> DialogAnswer,
     ) {
+        if self.prompted(title, file_name.clone(), answer) {
+            return;
+        }
         let sender = self.sender.clone();
         std::thread::spawn(move || {
             let picked = rfd::FileDialog::new()
@@ -165,9 +231,16 @@ pub fn save(state: &mut AppState, dialogs: &Dialogs) {
     }
 }
 
-/// Handles Ctrl+O, Ctrl+S and Ctrl+Shift+S.
+/// Handles Ctrl+N, Ctrl+O, Ctrl+S, Ctrl+Shift+S, Ctrl+E, undo and redo, and Escape.
 pub fn handle_shortcuts(ui: &egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
     use egui::{Key, KeyboardShortcut, Modifiers};
+    let new = KeyboardShortcut::new(Modifiers::COMMAND, Key::N);
+    if ui.input_mut(|input| input.consume_shortcut(&new)) {
+        state.new_document();
+    }
+    if ui.input_mut(|input| input.consume_key(Modifiers::NONE, Key::Escape)) {
+        close_topmost_window(state);
+    }
     let save_as = KeyboardShortcut::new(Modifiers::COMMAND | Modifiers::SHIFT, Key::S);
     let save_shortcut = KeyboardShortcut::new(Modifiers::COMMAND, Key::S);
     let open = KeyboardShortcut::new(Modifiers::COMMAND, Key::O);
@@ -195,11 +268,29 @@ pub fn handle_shortcuts(ui: &egui::Ui, state: &mut AppState, dialogs: &Dialogs) 
     }
 }
 
+/// Escape closes one window: the error message first, then the export, settings and
+/// Walsh scan windows, in that order (the question about unsaved changes has its own
+/// Cancel and is left alone).
+fn close_topmost_window(state: &mut AppState) {
+    if state.error_dialog.take().is_some() {
+        return;
+    }
+    for open in [
+        &mut state.export.open,
+        &mut state.settings_open,
+        &mut state.walsh.open,
+    ] {
+        if std::mem::take(open) {
+            return;
+        }
+    }
+}
+
 /// File and View menus.
 pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
     egui::MenuBar::new().ui(ui, |ui| {
         ui.menu_button("File", |ui| {
-            if ui.button("New").clicked() {
+            if ui.button("New  (Ctrl+N)").clicked() {
                 state.new_document();
                 ui.close();
             }
@@ -325,12 +416,8 @@ pub fn menu_bar(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
         });
         ui.menu_button("View", |ui| {
             ui.checkbox(&mut state.camera.show_labels, "Atom labels");
-            if ui
-                .checkbox(&mut state.project.view.dark_theme, "Dark theme")
-                .changed()
-            {
-                state.dirty = true;
-            }
+            // The theme is a preference, not an edit: it marks nothing unsaved.
+            ui.checkbox(&mut state.project.view.dark_theme, "Dark theme");
             ui.checkbox(&mut state.walsh.open, "Walsh scan window");
             ui.checkbox(&mut state.frame_timer.visible, "Frame time (debug)");
             if ui.button("Reset view").clicked() {

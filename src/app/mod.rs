@@ -7,6 +7,7 @@ mod builder;
 mod diagram_view;
 mod export_window;
 mod frame_timer;
+mod guard;
 mod history;
 mod inspector;
 mod lewis_section;
@@ -14,6 +15,7 @@ mod menus;
 mod molecule_panel;
 mod orbital_map_view;
 mod parameter_editor;
+mod path_prompt;
 mod recovery;
 mod scan_job;
 mod screenshot;
@@ -29,6 +31,8 @@ mod worker;
 
 #[cfg(test)]
 mod tests;
+#[cfg(test)]
+mod window_tests;
 
 use std::path::PathBuf;
 
@@ -36,6 +40,7 @@ use diptych::project::Opened;
 use eframe::egui;
 
 use menus::Dialogs;
+pub use screenshot::ScreenshotTarget;
 use screenshot::ScreenshotTask;
 use state::AppState;
 
@@ -53,7 +58,7 @@ impl DiptychApp {
     pub fn new(
         context: egui::Context,
         opened: Option<(Opened, PathBuf)>,
-        screenshot: Option<PathBuf>,
+        screenshot: Option<ScreenshotTarget>,
     ) -> Self {
         DiptychApp {
             state: AppState::new(context, opened),
@@ -148,6 +153,7 @@ impl DiptychApp {
         );
         walsh_view::show(ui.ctx(), &mut self.state, &self.dialogs);
         export_window::show(ui.ctx(), &mut self.state, &self.dialogs);
+        self.dialogs.show_prompt(ui.ctx());
         self.error_dialog(ui);
 
         let now = ui.input(|input| input.time);
@@ -457,7 +463,10 @@ impl eframe::App for DiptychApp {
 }
 
 /// Opens the main window; with `screenshot`, saves a PNG of it and closes.
-pub fn run(opened: Option<(Opened, PathBuf)>, screenshot: Option<PathBuf>) -> Result<(), String> {
+pub fn run(
+    opened: Option<(Opened, PathBuf)>,
+    screenshot: Option<ScreenshotTarget>,
+) -> Result<(), String> {
     let result_slot = screenshot
         .as_ref()
         .map(|_| screenshot::ResultSlot::default());

@@ -13,6 +13,7 @@ use diptych::orbital_map::{
 };
 use eframe::egui::{self, Align2, Color32, FontId, Pos2, Sense, Stroke, Vec2};
 
+use super::guard::guarded;
 use super::theme::element_colour;
 
 /// Positive lobes: a deep blue; negative lobes: a burnt orange (our own pair, chosen to
@@ -126,7 +127,9 @@ impl MapPanel {
         let spawned = std::thread::Builder::new()
             .name("orbital map".into())
             .spawn(move || {
-                let result = map_for(&analysis, orbital, plane_choice, levels);
+                let result = guarded("the orbital map", || {
+                    map_for(&analysis, orbital, plane_choice, levels)
+                });
                 let _ = sender.send(result);
                 context.request_repaint();
             });
@@ -141,9 +144,14 @@ impl MapPanel {
         let Some((_, receiver)) = &self.pending else {
             return;
         };
-        if let Ok(result) = receiver.try_recv()
-            && let Some((key, _)) = self.pending.take()
-        {
+        let result = match receiver.try_recv() {
+            Ok(result) => result,
+            Err(std::sync::mpsc::TryRecvError::Empty) => return,
+            Err(std::sync::mpsc::TryRecvError::Disconnected) => {
+                Err("the orbital map thread stopped".to_string())
+            }
+        };
+        if let Some((key, _)) = self.pending.take() {
             self.shown = Some((key, result.map(Arc::new)));
         }
     }

@@ -10,6 +10,8 @@ use diptych::chem::Molecule;
 use diptych::scan::{Scan, ScanProgress, ScanRequest, run_scan};
 use eframe::egui;
 
+use super::guard::guarded;
+
 /// A scan under way.
 pub struct ScanJob {
     pub progress: Arc<ScanProgress>,
@@ -30,8 +32,10 @@ impl ScanJob {
         let spawned = std::thread::Builder::new()
             .name("walsh scan".into())
             .spawn(move || {
-                let result = run_scan(&molecule, &settings, &request, &shared)
-                    .map_err(|error| error.to_string());
+                let result = guarded("the scan", || {
+                    run_scan(&molecule, &settings, &request, &shared)
+                        .map_err(|error| error.to_string())
+                });
                 let _ = sender.send(result);
                 context.request_repaint();
             });

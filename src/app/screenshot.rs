@@ -1,10 +1,20 @@
 //! `--screenshot OUT.png`: let the real window render a few frames (and the first
-//! analysis arrive), ask the viewport for a screenshot, write it as PNG and close.
+//! analysis arrive), ask the viewport for a screenshot, write it as PNG through the
+//! library's one writer (`chem::io::write_file`, with the `--force` rule the command line
+//! checked before the window opened) and close.
 
 use std::path::PathBuf;
 use std::sync::{Arc, Mutex};
 
+use diptych::chem::io::{Overwrite, write_file};
 use eframe::egui;
+
+/// Where the screenshot goes and whether an existing file there may be replaced.
+#[derive(Clone, Debug)]
+pub struct ScreenshotTarget {
+    pub path: PathBuf,
+    pub overwrite: Overwrite,
+}
 
 /// Where the outcome of the screenshot is reported back to `run`.
 #[derive(Clone, Default)]
@@ -32,7 +42,7 @@ impl ResultSlot {
 }
 
 pub struct ScreenshotTask {
-    path: PathBuf,
+    target: ScreenshotTarget,
     frames: u32,
     requested: bool,
     slot: ResultSlot,
@@ -44,9 +54,9 @@ const WARM_UP_FRAMES: u32 = 8;
 const MAX_FRAMES: u32 = 600;
 
 impl ScreenshotTask {
-    pub fn new(path: PathBuf) -> ScreenshotTask {
+    pub fn new(target: ScreenshotTarget) -> ScreenshotTask {
         ScreenshotTask {
-            path,
+            target,
             frames: 0,
             requested: false,
             slot: ResultSlot::default(),
@@ -68,18 +78,18 @@ impl ScreenshotTask {
         let ready = (content_ready && self.frames >= WARM_UP_FRAMES) || self.frames >= MAX_FRAMES;
         if ready && !self.requested {
             self.requested = true;
-            let path = self.path.clone();
+            let target = self.target.clone();
             let slot = self.slot.clone();
             let waker = context.clone();
             context.request_screenshot(move |image| {
-                slot.set(write_png(&path, &image));
+                slot.set(write_png(&target, &image));
                 waker.request_repaint();
             });
         }
     }
 }
 
-fn write_png(path: &std::path::Path, image: &egui::ColorImage) -> Result<(), String> {
+fn write_png(target: &ScreenshotTarget, image: &egui::ColorImage) -> Result<(), String> {
     let [width, height] = image.size;
     let mut bytes = Vec::with_capacity(width * height * 4);
     for pixel in &image.pixels {
@@ -97,6 +107,5 @@ fn write_png(path: &std::path::Path, image: &egui::ColorImage) -> Result<(), Str
             .write_image_data(&bytes)
             .map_err(|e| format!("PNG encoding failed: {e}"))?;
     }
-    diptych::chem::io::write_atomically(path, &encoded)
-        .map_err(|e| format!("cannot write '{}': {e}", path.display()))
+    write_file(&target.path, &encoded, target.overwrite).map_err(|error| error.to_string())
 }

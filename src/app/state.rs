@@ -69,7 +69,7 @@ pub struct AppState {
     /// Whether the Settings window is shown.
     pub settings_open: bool,
     /// Set by undo/redo: this frame's change is a history step, not a new edit.
-    navigated_history: bool,
+    skip_recording: bool,
     /// Recently opened or saved files, newest first (kept between sessions).
     pub recent_files: Vec<PathBuf>,
     /// The Inspector's orbital map (plane choice, cached map).
@@ -138,7 +138,7 @@ impl AppState {
             last_autosave: None,
             pending_discard: None,
             settings_open: false,
-            navigated_history: false,
+            skip_recording: false,
             recent_files: Vec::new(),
             map: Default::default(),
             export: Default::default(),
@@ -233,7 +233,7 @@ impl AppState {
     /// Call once per frame with the document as it was before the frame's UI ran: records
     /// an undo step and schedules the analysis or the layout as the change requires.
     pub fn after_frame(&mut self, before: Project, now: f64) {
-        if std::mem::take(&mut self.navigated_history) {
+        if std::mem::take(&mut self.skip_recording) {
             return;
         }
         let change = classify(&before, &self.project);
@@ -275,7 +275,7 @@ impl AppState {
         let change = classify(&target, &self.project);
         self.project = target;
         self.apply_change(change);
-        self.navigated_history = true;
+        self.skip_recording = true;
         self.status = message.into();
     }
 
@@ -365,6 +365,8 @@ impl AppState {
         self.camera = Camera::facing(&self.project.molecule);
         self.document_changed();
         self.dirty = false;
+        // A new or opened document is not an edit of the old one: no undo step, no mark.
+        self.skip_recording = true;
     }
 
     /// Writes the recovery file when changes have been unsaved for a while.
@@ -550,8 +552,9 @@ impl AppState {
             Ok(()) => self.status = format!("Exported {}", path.display()),
             Err(error) => {
                 self.error_dialog = Some(format!(
-                    "Could not export {what}.\n\n{}: {error}",
-                    path.display()
+                    "Could not export {what}.\n\n{}: {}",
+                    path.display(),
+                    error.reason()
                 ))
             }
         }

@@ -1,6 +1,7 @@
 //! Runs `Analysis::run` on a background thread so the window never waits for chemistry.
 //! Requests carry a generation number; the thread always works on the newest request
-//! and the UI ignores results older than the document it shows.
+//! and the UI ignores results older than the document it shows. A panic inside the
+//! analysis comes back as an error (`guard::guarded`) and the thread goes on serving.
 
 use std::sync::Arc;
 use std::sync::mpsc::{Receiver, Sender, channel};
@@ -8,6 +9,8 @@ use std::sync::mpsc::{Receiver, Sender, channel};
 use diptych::analysis::{Analysis, Settings};
 use diptych::chem::Molecule;
 use eframe::egui;
+
+use super::guard::guarded;
 
 struct Request {
     generation: u64,
@@ -40,9 +43,11 @@ impl AnalysisWorker {
                     while let Ok(newer) = request_receiver.try_recv() {
                         request = newer;
                     }
-                    let result = Analysis::run(&request.molecule, &request.settings)
-                        .map(Arc::new)
-                        .map_err(|error| error.to_string());
+                    let result = guarded("the analysis", || {
+                        Analysis::run(&request.molecule, &request.settings)
+                            .map(Arc::new)
+                            .map_err(|error| error.to_string())
+                    });
                     let outcome = Outcome {
                         generation: request.generation,
                         result,

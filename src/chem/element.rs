@@ -123,7 +123,7 @@ impl Element {
             .iter()
             .position(|row| row.symbol.eq_ignore_ascii_case(trimmed))
             .map(|index| Element(index as u8 + 1))
-            .ok_or_else(|| ElementError::UnknownSymbol(trimmed.chars().take(16).collect()))
+            .ok_or_else(|| ElementError::UnknownSymbol(crate::message::shown(trimmed)))
     }
 
     /// All elements of the table, in order of atomic number.

@@ -1,6 +1,7 @@
 //! Chemistry data: elements, the molecule model and file formats.
 
 pub mod ao;
+mod edit;
 pub mod element;
 pub mod io;
 pub mod molecule;

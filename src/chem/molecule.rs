@@ -20,9 +20,27 @@ pub const MIN_SEPARATION: f64 = 0.5;
 pub const MAX_COORDINATE: f64 = 1.0e4;
 /// Bonded when d < BOND_TOLERANCE × (r_a + r_b).
 pub const BOND_TOLERANCE: f64 = 1.15;
+/// Two hydrogens are bonded closer than this (Å). Cordero's r(H) = 0.31 Å comes from X–H
+/// bonds, so 1.15 × 2 r(H) = 0.713 Å would miss H₂ itself (0.741 Å, NIST CCCBDB, from
+/// memory) and H₃⁺ (0.87 Å); hydrogens that are not bonded sit 1.5 Å or more apart in
+/// molecules (geminal H···H in water and methane). Common practice, no source.
+pub const H_H_BOND_LIMIT: f64 = 1.0;
+/// Longest molecule name, ladder title or orbital label a document may hold (characters):
+/// long enough for any real name, short enough that no figure or report chokes on it.
+pub const MAX_NAME_CHARACTERS: usize = 200;
+/// Most bonds one atom may have: 12 is the most neighbours of close packing; no molecule
+/// with elements up to Kr needs more (common practice, no source).
+pub const MAX_BONDS_PER_ATOM: usize = 12;
+/// Largest net charge magnitude accepted: far beyond any molecular ion, small enough that
+/// the electron count stays meaningful (common practice, no source).
+pub const MAX_CHARGE: i32 = 100;
+/// Highest bond order a bond list may hold: quadruple (distance perception gives C₂ one,
+/// each carbon filling its valence of 4 on its one partner; metal–metal bonds reach it).
+pub const MAX_BOND_ORDER: u8 = 4;
 
 /// One atom: element and Cartesian position in Å.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Atom {
     pub element: Element,
     pub position: Vector3<f64>,
@@ -37,12 +55,17 @@ impl Atom {
     }
 }
 
-/// A bond between atoms `a` < `b` (0-based) with a formal order (1, 2, 3).
+/// A bond between atoms `a` < `b` (0-based) with a formal order (1 to 4). An aromatic
+/// bond (from a molfile's bond type 4) keeps its flag for drawing and reports; its `order`
+/// is that of one Kekulé structure (1 or 2).
 #[derive(Clone, Copy, Debug, PartialEq, Eq, Hash, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Bond {
     pub a: usize,
     pub b: usize,
     pub order: u8,
+    #[serde(default, skip_serializing_if = "std::ops::Not::not")]
+    pub aromatic: bool,
 }
 
 impl Bond {
@@ -52,6 +75,7 @@ impl Bond {
             a: a.min(b),
             b: a.max(b),
             order,
+            aromatic: false,
         }
     }
 
@@ -91,12 +115,33 @@ pub enum MoleculeError {
     NotBonded { a: usize, b: usize },
     #[error("bond {a}–{b} lies in a ring; its fragments cannot be moved apart")]
     BondInRing { a: usize, b: usize },
+    #[error(
+        "atoms {a} and {b} are not bonded to each other but are joined through other atoms, so neither side can move alone; scan a bond, or a distance between separate fragments"
+    )]
+    JoinedElsewhere { a: usize, b: usize },
     #[error("{what} of {value} is not possible")]
     ImpossibleValue { what: &'static str, value: f64 },
+    #[error("the charge {charge} is out of range (it must be -{MAX_CHARGE} to {MAX_CHARGE})")]
+    ChargeOutOfRange { charge: i32 },
+    #[error("the name has {count} characters; the limit is {MAX_NAME_CHARACTERS}")]
+    NameTooLong { count: usize },
+    #[error("bond {a}–{b} names an atom that does not exist (the atoms are 0 to {last})")]
+    BondAtomOutOfRange { a: usize, b: usize, last: usize },
+    #[error("bond {a}–{a} joins atom {a} to itself")]
+    BondToItself { a: usize },
+    #[error("bond {a}–{b} is listed twice; each pair of atoms may be bonded once")]
+    DuplicateBond { a: usize, b: usize },
+    #[error(
+        "bond {a}–{b} has order {order}; the orders are 1 to {MAX_BOND_ORDER} (1 or 2 for an aromatic bond)"
+    )]
+    BadBondOrder { a: usize, b: usize, order: u8 },
+    #[error("atom {atom} has {count} bonds; the limit is {MAX_BONDS_PER_ATOM} per atom")]
+    TooManyBonds { atom: usize, count: usize },
 }
 
 /// A molecule: atoms, net charge, a name and its bonds.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct Molecule {
     pub name: String,
     pub atoms: Vec<Atom>,
@@ -125,21 +170,26 @@ impl Molecule {
         self.atoms.is_empty()
     }
 
+    /// The distance (Å) below which atoms `a` and `b` are bonded: 1.15 × (r_a + r_b), and
+    /// [`H_H_BOND_LIMIT`] for two hydrogens.
+    pub fn bond_limit(&self, a: usize, b: usize) -> f64 {
+        let (ea, eb) = (self.atoms[a].element, self.atoms[b].element);
+        if ea == Element::H && eb == Element::H {
+            return H_H_BOND_LIMIT;
+        }
+        BOND_TOLERANCE * (ea.covalent_radius() + eb.covalent_radius())
+    }
+
     /// Replaces the bond list with single bonds between atoms closer than
-    /// 1.15 × (r_a + r_b). Orders of bonds that survive are kept.
+    /// [`Molecule::bond_limit`]. Orders and aromatic flags of bonds that survive are kept.
     pub fn perceive_bonds(&mut self) {
         let old = std::mem::take(&mut self.bonds);
         for a in 0..self.atoms.len() {
             for b in a + 1..self.atoms.len() {
-                let limit = BOND_TOLERANCE
-                    * (self.atoms[a].element.covalent_radius()
-                        + self.atoms[b].element.covalent_radius());
+                let limit = self.bond_limit(a, b);
                 if self.distance_unchecked(a, b) < limit {
-                    let order = old
-                        .iter()
-                        .find(|bond| bond.a == a && bond.b == b)
-                        .map_or(1, |bond| bond.order);
-                    self.bonds.push(Bond::new(a, b, order));
+                    let kept = old.iter().find(|bond| bond.a == a && bond.b == b);
+                    self.bonds.push(kept.copied().unwrap_or(Bond::new(a, b, 1)));
                 }
             }
         }
@@ -150,6 +200,19 @@ impl Molecule {
     /// with the fewest unsaturated partners (common practice, no source). Gives C=O in
     /// formaldehyde, C≡N in HCN and a Kekulé structure for benzene. Deterministic.
     pub fn perceive_bond_orders(&mut self) {
+        self.raise_orders(|_| true);
+    }
+
+    /// A Kekulé structure for the aromatic bonds: the same greedy matching as
+    /// [`Molecule::perceive_bond_orders`], raising aromatic bonds only, so that explicit
+    /// single and double bonds of a file are never changed.
+    pub fn kekulize_aromatic(&mut self) {
+        if self.bonds.iter().any(|bond| bond.aromatic) {
+            self.raise_orders(|bond| bond.aromatic);
+        }
+    }
+
+    fn raise_orders(&mut self, may_raise: impl Fn(&Bond) -> bool) {
         let mut free: Vec<i32> = self
             .atoms
             .iter()
@@ -160,7 +223,12 @@ impl Molecule {
             free[bond.b] -= bond.order as i32;
         }
         loop {
-            let open = |bond: &Bond| free[bond.a] > 0 && free[bond.b] > 0;
+            let open = |bond: &Bond| {
+                may_raise(bond)
+                    && free[bond.a] > 0
+                    && free[bond.b] > 0
+                    && (!bond.aromatic || bond.order < 2)
+            };
             let candidates = |atom: usize| {
                 self.bonds
                     .iter()
@@ -246,12 +314,55 @@ impl Molecule {
                 }
             }
         }
+        if self.charge.unsigned_abs() > MAX_CHARGE.unsigned_abs() {
+            return Err(MoleculeError::ChargeOutOfRange {
+                charge: self.charge,
+            });
+        }
         let electrons = self.electron_count();
         if electrons <= 0 {
             return Err(MoleculeError::NoElectrons {
                 electrons,
                 charge: self.charge,
             });
+        }
+        let count = self.name.chars().count();
+        if count > MAX_NAME_CHARACTERS {
+            return Err(MoleculeError::NameTooLong { count });
+        }
+        self.validate_bonds()
+    }
+
+    /// The bond list: atoms that exist, no atom bonded to itself, each pair once, orders
+    /// 1 to [`MAX_BOND_ORDER`], at most [`MAX_BONDS_PER_ATOM`] bonds per atom.
+    pub fn validate_bonds(&self) -> Result<(), MoleculeError> {
+        let count = self.atoms.len();
+        let mut per_atom = vec![0usize; count];
+        let mut seen = std::collections::HashSet::new();
+        for bond in &self.bonds {
+            let (a, b) = (bond.a, bond.b);
+            if a >= count || b >= count {
+                let last = count.saturating_sub(1);
+                return Err(MoleculeError::BondAtomOutOfRange { a, b, last });
+            }
+            if a == b {
+                return Err(MoleculeError::BondToItself { a });
+            }
+            if !seen.insert((a.min(b), a.max(b))) {
+                return Err(MoleculeError::DuplicateBond { a, b });
+            }
+            let highest = if bond.aromatic { 2 } else { MAX_BOND_ORDER };
+            if !(1..=highest).contains(&bond.order) {
+                let order = bond.order;
+                return Err(MoleculeError::BadBondOrder { a, b, order });
+            }
+            for atom in [a, b] {
+                per_atom[atom] += 1;
+                if per_atom[atom] > MAX_BONDS_PER_ATOM {
+                    let count = per_atom[atom];
+                    return Err(MoleculeError::TooManyBonds { atom, count });
+                }
+            }
         }
         Ok(())
     }
@@ -310,7 +421,7 @@ impl Molecule {
             / mass
     }
 
-    fn check_indices(&self, indices: &[usize]) -> Result<(), MoleculeError> {
+    pub(crate) fn check_indices(&self, indices: &[usize]) -> Result<(), MoleculeError> {
         for &index in indices {
             if index >= self.atoms.len() {
                 return Err(MoleculeError::AtomIndexOutOfRange {
@@ -383,6 +494,9 @@ impl Molecule {
     /// joined by another path (a ring).
     fn moving_side(&self, i: usize, j: usize) -> Result<(Vec<bool>, bool), MoleculeError> {
         let side_j = self.fragment(j, i);
+        if side_j[i] && self.bond(i, j).is_none() {
+            return Err(MoleculeError::JoinedElsewhere { a: i, b: j });
+        }
         if side_j[i] {
             return Err(MoleculeError::BondInRing { a: i, b: j });
         }
@@ -528,61 +642,6 @@ impl Molecule {
                 bond.b -= 1;
             }
         }
-        Ok(())
-    }
-
-    /// Adds an atom of `element` bonded to `anchor`, at the sum of the covalent radii,
-    /// along the anchor's free valence direction (away from its existing bonds; common
-    /// practice, no source). Returns the new atom's index.
-    pub fn add_bonded_atom(
-        &mut self,
-        anchor: usize,
-        element: Element,
-    ) -> Result<usize, MoleculeError> {
-        self.check_indices(&[anchor])?;
-        let centre = self.atoms[anchor].position;
-        let units: Vec<Vector3<f64>> = self
-            .neighbours(anchor)
-            .iter()
-            .map(|&n| self.atoms[n].position - centre)
-            .filter(|v| v.norm() > 1e-9)
-            .map(|v| v.normalize())
-            .collect();
-        let sum: Vector3<f64> = units.iter().sum();
-        let direction = if units.is_empty() {
-            Vector3::x()
-        } else if sum.norm() > 0.1 {
-            -sum.normalize()
-        } else if units.len() == 1 {
-            any_perpendicular(&units[0])
-        } else {
-            // Bonds that cancel (linear or planar-symmetric): go perpendicular to them.
-            let normal = units[0].cross(&units[1]);
-            if normal.norm() > 1e-6 {
-                normal.normalize()
-            } else {
-                any_perpendicular(&units[0])
-            }
-        };
-        let length = self.atoms[anchor].element.covalent_radius() + element.covalent_radius();
-        self.atoms.push(Atom {
-            element,
-            position: centre + direction * length,
-        });
-        let index = self.atoms.len() - 1;
-        self.bonds.push(Bond::new(anchor, index, 1));
-        Ok(index)
-    }
-
-    /// Changes the element of atom `index`; bond orders are perceived again from the
-    /// usual valences.
-    pub fn set_element(&mut self, index: usize, element: Element) -> Result<(), MoleculeError> {
-        self.check_indices(&[index])?;
-        self.atoms[index].element = element;
-        for bond in &mut self.bonds {
-            bond.order = 1;
-        }
-        self.perceive_bond_orders();
         Ok(())
     }
 
@@ -794,10 +853,9 @@ mod tests {
     fn builder_edits_keep_bonds_consistent() {
         let mut m = methane();
         let extra = m.add_bonded_atom(1, Element::H).unwrap();
-        // Along the C–H1 axis, away from carbon, at r(H) + r(H) (Cordero 2008).
-        let along = (m.atoms[extra].position - m.atoms[1].position).normalize();
-        let axis = (m.atoms[1].position - m.atoms[0].position).normalize();
-        assert!((along.dot(&axis) - 1.0).abs() < 1e-12);
+        // Beside the single C–H1 bond at the tetrahedral angle (src/chem/edit.rs), at
+        // r(H) + r(H) (Cordero 2008).
+        assert!((m.angle(0, 1, extra).unwrap() - 109.471_220_634_490_7).abs() < 1e-9);
         assert!((m.distance(1, extra).unwrap() - 0.62).abs() < 1e-12);
         m.remove_atom(2).unwrap();
         assert_eq!(m.atoms.len(), 5);
@@ -823,6 +881,55 @@ mod tests {
         assert_eq!(ion.formula(), "HN+");
         ion.charge = -2;
         assert_eq!(ion.formula(), "HN2−");
+    }
+
+    /// A centre with `n` hydrogens on a sphere of 1.1 Å (golden-spiral points), all bonded.
+    fn hedgehog(n: usize) -> Molecule {
+        let mut atoms = vec![Atom::new(Element::C, [0.0, 0.0, 0.0])];
+        for k in 0..n {
+            let z = 1.0 - 2.0 * (k as f64 + 0.5) / n as f64;
+            let r = (1.0 - z * z).sqrt();
+            let phi = k as f64 * std::f64::consts::PI * (3.0 - 5f64.sqrt());
+            atoms.push(Atom::new(
+                Element::H,
+                [1.1 * r * phi.cos(), 1.1 * r * phi.sin(), 1.1 * z],
+            ));
+        }
+        let mut molecule = Molecule::new("hedgehog", atoms, 0);
+        molecule.bonds = (1..=n).map(|h| Bond::new(0, h, 1)).collect();
+        molecule
+    }
+
+    #[test]
+    fn bond_lists_are_checked() {
+        assert_eq!(hedgehog(12).validate(), Ok(()));
+        assert_eq!(
+            hedgehog(13).validate(),
+            Err(MoleculeError::TooManyBonds { atom: 0, count: 13 })
+        );
+        let mut twice = hedgehog(4);
+        twice.bonds.push(Bond {
+            a: 1,
+            b: 0,
+            order: 1,
+            aromatic: false,
+        });
+        assert_eq!(
+            twice.validate(),
+            Err(MoleculeError::DuplicateBond { a: 1, b: 0 })
+        );
+        let mut triple_plus = hedgehog(4);
+        triple_plus.bonds[0].order = 9;
+        assert!(matches!(
+            triple_plus.validate(),
+            Err(MoleculeError::BadBondOrder { order: 9, .. })
+        ));
+        let mut long_name = hedgehog(4);
+        long_name.name = "x".repeat(MAX_NAME_CHARACTERS + 1);
+        assert_eq!(
+            long_name.validate(),
+            Err(MoleculeError::NameTooLong { count: 201 })
+        );
     }
 
     #[test]

@@ -7,10 +7,12 @@ use clap::Args;
 
 use diptych::analysis::Analysis;
 use diptych::orbital_map::{
-    MapOptions, MapSvgOptions, Plane, compute_map, default_plane, find_orbital, map_to_svg,
+    MAX_GRID, MIN_GRID, MapOptions, MapSvgOptions, Plane, compute_map, default_plane, find_orbital,
+    map_to_svg,
 };
 
-use super::{MethodArgs, analyse_file};
+use super::output::{check_replaceable, write_output};
+use super::{MethodArgs, analyse_file, require_orbitals};
 
 /// Arguments of `diptych map`.
 #[derive(Args, Debug)]
@@ -33,13 +35,13 @@ pub(super) struct MapArgs {
     #[arg(short, long, value_name = "OUT.svg")]
     output: PathBuf,
     /// Grid points a side (8 to 2048).
-    #[arg(long, default_value_t = 200)]
-    grid: usize,
+    #[arg(long, default_value_t = 200, allow_hyphen_values = true)]
+    grid: i64,
     /// Contour magnitudes in bohr^-3/2, each drawn at + and − (default 0.02,0.04,0.08,0.16,0.32).
-    #[arg(long, value_name = "A,B,...")]
+    #[arg(long, value_name = "A,B,...", allow_hyphen_values = true)]
     levels: Option<String>,
     /// Space around the atoms, Å.
-    #[arg(long, default_value_t = 2.0)]
+    #[arg(long, default_value_t = 2.0, allow_hyphen_values = true)]
     margin: f64,
     #[command(flatten)]
     method: MethodArgs,
@@ -99,8 +101,15 @@ fn choose_plane(
 }
 
 pub(super) fn map(args: &MapArgs) -> ExitCode {
+    // A negative count is read, so that the message can say the range.
+    let Ok(points) = usize::try_from(args.grid) else {
+        return bad_input(format!(
+            "a grid of {} points a side is not usable (it must be {MIN_GRID} to {MAX_GRID})",
+            args.grid
+        ));
+    };
     let options = MapOptions {
-        points: args.grid,
+        points,
         margin: args.margin,
         levels: match &args.levels {
             Some(text) => match parse_levels(text) {
@@ -125,16 +134,16 @@ pub(super) fn map(args: &MapArgs) -> ExitCode {
             output.display()
         ));
     }
-    if output.exists() && !args.force {
-        return bad_input(format!(
-            "'{}' exists; add --force to replace it",
-            output.display()
-        ));
+    if let Err(code) = check_replaceable(output, args.force) {
+        return code;
     }
     let analysis = match analyse_file(&args.file, &args.method) {
         Ok((_, analysis)) => analysis,
         Err(code) => return code,
     };
+    if let Err(code) = require_orbitals(&analysis) {
+        return code;
+    }
     let reference = match find_orbital(&analysis, &args.orbital) {
         Ok(reference) => reference,
         Err(error) => return bad_input(error),
@@ -148,8 +157,5 @@ pub(super) fn map(args: &MapArgs) -> ExitCode {
         Err(error) => return bad_input(error),
     };
     let svg = map_to_svg(&map, &MapSvgOptions::default());
-    match diptych::chem::io::write_atomically(output, svg.as_bytes()) {
-        Ok(()) => ExitCode::SUCCESS,
-        Err(error) => bad_input(format!("cannot write '{}': {error}", output.display())),
-    }
+    write_output(output, svg.as_bytes(), args.force)
 }

@@ -32,6 +32,10 @@ struct Cli {
     #[arg(long, value_name = "OUT.png")]
     screenshot: Option<PathBuf>,
 
+    /// With --screenshot: replace OUT.png if it exists.
+    #[arg(long, requires = "screenshot")]
+    force: bool,
+
     /// Molecule (.xyz, .mol, .sdf) or project (.diptych.ron) to open in the window.
     file: Option<PathBuf>,
 }
@@ -207,7 +211,7 @@ pub fn main() -> ExitCode {
         Some(Command::Report(args)) => report::report(&args),
         Some(Command::Scan(args)) => scan::scan(&args),
         Some(Command::Map(args)) => map::map(&args),
-        None => open_window(cli.file, cli.screenshot),
+        None => open_window(cli.file, cli.screenshot, cli.force),
     }
 }
 
@@ -235,6 +239,23 @@ pub(super) fn run_analysis(opened: &Opened, settings: &Settings) -> Result<Analy
         eprintln!("diptych: {:?} stage failed: {}", error.stage, error.message);
     }
     Ok(analysis)
+}
+
+/// A file output needs orbitals: without them (the orbital stage failed, e.g. more
+/// electrons than spin orbitals) there is nothing to draw or tabulate, so the command
+/// stops with exit code 2 and writes nothing.
+pub(super) fn require_orbitals(analysis: &Analysis) -> Result<(), ExitCode> {
+    if !analysis.orbitals.is_empty() {
+        return Ok(());
+    }
+    let reason = analysis
+        .errors
+        .first()
+        .map_or("no stage gave a reason", |error| error.message.as_str());
+    eprintln!(
+        "diptych: nothing to write: the analysis has no molecular orbitals ({reason}); no file was written"
+    );
+    Err(ExitCode::from(2))
 }
 
 fn analyze(file: &Path, format: Format, method: &MethodArgs) -> ExitCode {
@@ -266,7 +287,20 @@ pub(super) fn print_or_fail(output: &str) -> ExitCode {
 }
 
 #[cfg(feature = "gui")]
-fn open_window(file: Option<PathBuf>, screenshot: Option<PathBuf>) -> ExitCode {
+fn open_window(file: Option<PathBuf>, screenshot: Option<PathBuf>, force: bool) -> ExitCode {
+    // The screenshot's name and folder are checked before the window opens.
+    if let Some(path) = &screenshot {
+        if let Err(code) = output::extension_among(path, &["png"]) {
+            return code;
+        }
+        if let Err(code) = output::check_replaceable(path, force) {
+            return code;
+        }
+    }
+    let screenshot = screenshot.map(|path| crate::app::ScreenshotTarget {
+        path,
+        overwrite: output::overwrite(force),
+    });
     let opened = match file {
         Some(path) => match open_for_cli(&path, None) {
             Ok(opened) => Some((opened, path)),
@@ -284,7 +318,7 @@ fn open_window(file: Option<PathBuf>, screenshot: Option<PathBuf>) -> ExitCode {
 }
 
 #[cfg(not(feature = "gui"))]
-fn open_window(_file: Option<PathBuf>, _screenshot: Option<PathBuf>) -> ExitCode {
+fn open_window(_file: Option<PathBuf>, _screenshot: Option<PathBuf>, _force: bool) -> ExitCode {
     eprintln!(
         "diptych: this build has no window (built without the 'gui' feature); use a subcommand, see --help"
     );

@@ -9,7 +9,7 @@ use clap::Args;
 use diptych::report::{ReportFormat, render};
 
 use super::output::{check_replaceable, extension_among, write_output};
-use super::{MethodArgs, analyse_file};
+use super::{MethodArgs, analyse_file, require_orbitals};
 
 #[derive(Args, Debug)]
 pub(super) struct ReportArgs {
@@ -38,7 +38,12 @@ pub(super) fn report(args: &ReportArgs) -> ExitCode {
         return code;
     }
     match analyse_file(&args.file, &args.method) {
-        Ok((_, analysis)) => write_output(&args.output, render(&analysis, format).as_bytes()),
+        Ok((_, analysis)) if require_orbitals(&analysis).is_err() => ExitCode::from(2),
+        Ok((_, analysis)) => write_output(
+            &args.output,
+            render(&analysis, format).as_bytes(),
+            args.force,
+        ),
         Err(code) => code,
     }
 }

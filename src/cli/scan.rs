@@ -8,9 +8,12 @@ use std::process::ExitCode;
 use clap::{ArgGroup, Args};
 
 use diptych::scan::svg::{WalshSvgOptions, walsh_svg};
-use diptych::scan::{Coordinate, ScanProgress, ScanRequest, csv::to_csv, run_scan};
+use diptych::scan::{
+    Coordinate, MAX_POINTS, MIN_POINTS, ScanProgress, ScanRequest, csv::to_csv, run_scan,
+};
 
 use super::open_for_cli;
+use super::output::{check_replaceable, write_output};
 
 /// The scan's coordinate: exactly one of these. Atom indices are 0-based, in file order,
 /// as in the JSON report.
@@ -55,8 +58,8 @@ pub(super) struct ScanArgs {
     #[arg(long, allow_hyphen_values = true)]
     pub(super) to: f64,
     /// Number of points, both ends included (2 to 10000).
-    #[arg(long)]
-    pub(super) steps: usize,
+    #[arg(long, allow_hyphen_values = true)]
+    pub(super) steps: i64,
     /// Output file: .csv (table) or .svg (Walsh diagram).
     #[arg(short, long, value_name = "OUT.csv|OUT.svg")]
     pub(super) output: PathBuf,
@@ -124,6 +127,9 @@ fn output_kind(path: &Path) -> Result<Output, String> {
     }
 }
 
+/// At most this many failed points are listed one by one.
+const SHOWN_FAILURES: usize = 10;
+
 fn bad_input(message: impl std::fmt::Display) -> ExitCode {
     eprintln!("diptych: {message}");
     ExitCode::from(2)
@@ -138,15 +144,19 @@ pub(super) fn scan(args: &ScanArgs) -> ExitCode {
         Ok(kind) => kind,
         Err(message) => return bad_input(message),
     };
-    if args.output.exists() && !args.force {
-        return bad_input(format!(
-            "'{}' exists; add --force to replace it",
-            args.output.display()
-        ));
+    if let Err(code) = check_replaceable(&args.output, args.force) {
+        return code;
     }
     let opened = match open_for_cli(&args.file, args.charge) {
         Ok(opened) => opened,
         Err(code) => return code,
+    };
+    // A negative count is read, so that the message can say the range.
+    let Ok(steps) = usize::try_from(args.steps) else {
+        return bad_input(format!(
+            "{} points: a scan has {MIN_POINTS} to {MAX_POINTS} points",
+            args.steps
+        ));
     };
     let settings = opened.project.settings.clone();
     let molecule = &opened.project.molecule;
@@ -154,7 +164,7 @@ pub(super) fn scan(args: &ScanArgs) -> ExitCode {
         coordinate,
         from: args.from,
         to: args.to,
-        steps: args.steps,
+        steps,
     };
     // All validation happens here, before any analysis.
     if let Err(error) = request.plan(molecule) {
@@ -165,13 +175,26 @@ pub(super) fn scan(args: &ScanArgs) -> ExitCode {
         Ok(scan) => scan,
         Err(error) => return bad_input(error),
     };
-    for p in scan.failed_points() {
+    let failed = scan.failed_points();
+    for &p in failed.iter().take(SHOWN_FAILURES) {
         let point = &scan.points[p];
         eprintln!(
             "diptych: point {p} ({}) failed: {}",
             point.value,
             point.failure.as_deref().unwrap_or("")
         );
+    }
+    if failed.len() > SHOWN_FAILURES {
+        eprintln!(
+            "diptych: … and {} more points failed",
+            failed.len() - SHOWN_FAILURES
+        );
+    }
+    if failed.len() == scan.points.len() {
+        return bad_input(format!(
+            "nothing to write: all {} points of the scan failed; no file was written",
+            scan.points.len()
+        ));
     }
     let text = match kind {
         Output::Csv => to_csv(&scan),
@@ -183,8 +206,5 @@ pub(super) fn scan(args: &ScanArgs) -> ExitCode {
             walsh_svg(&scan, &options)
         }
     };
-    match diptych::chem::io::write_atomically(&args.output, text.as_bytes()) {
-        Ok(()) => ExitCode::SUCCESS,
-        Err(error) => bad_input(format!("cannot write '{}': {error}", args.output.display())),
-    }
+    write_output(&args.output, text.as_bytes(), args.force)
 }

@@ -5,8 +5,9 @@
 use thiserror::Error;
 
 use super::layout::Diagram;
-use super::png::{PngError, Resolution, render_png};
+use super::png::{PngError, Resolution, raster_size, render_png};
 use super::svg::{SvgOptions, to_svg};
+use crate::chem::molecule::MAX_NAME_CHARACTERS;
 
 /// Largest accepted drawing size (CSS pixels per side); a sanity bound, no source.
 pub const MAX_SIZE_PX: f64 = 100_000.0;
@@ -24,12 +25,17 @@ pub enum ExportError {
     EmptyFontFamily,
     #[error("the title of the {0} ladder is empty")]
     EmptyTitle(&'static str),
+    #[error(
+        "the title of the {ladder} ladder has {count} characters; the limit is {MAX_NAME_CHARACTERS}"
+    )]
+    TitleTooLong { ladder: &'static str, count: usize },
     #[error(transparent)]
     Png(#[from] PngError),
 }
 
-/// Checks the options against the diagram they will draw.
-pub fn validate(diagram: &Diagram, options: &SvgOptions) -> Result<(), ExportError> {
+/// Checks the options that do not depend on the diagram (sizes, font); callers run it
+/// before any analysis.
+pub fn check_options(options: &SvgOptions) -> Result<(), ExportError> {
     let usable = |v: f64| v.is_finite() && (1.0..=MAX_SIZE_PX).contains(&v);
     if !usable(options.width) || !usable(options.height) {
         return Err(ExportError::BadSize {
@@ -43,13 +49,40 @@ pub fn validate(diagram: &Diagram, options: &SvgOptions) -> Result<(), ExportErr
     if options.font_family.trim().is_empty() {
         return Err(ExportError::EmptyFontFamily);
     }
+    Ok(())
+}
+
+/// [`check_options`], then the raster size of a PNG at `resolution` (at most the drawing's
+/// full size: a one-ladder crop is smaller).
+pub fn check_png_options(options: &SvgOptions, resolution: Resolution) -> Result<(), ExportError> {
+    check_options(options)?;
+    raster_size(options.width, options.height, resolution)?;
+    Ok(())
+}
+
+/// A ladder title: not empty, at most [`MAX_NAME_CHARACTERS`].
+pub fn check_title(title: &str, ladder: &'static str) -> Result<(), ExportError> {
+    if title.trim().is_empty() {
+        return Err(ExportError::EmptyTitle(ladder));
+    }
+    let count = title.chars().count();
+    if count > MAX_NAME_CHARACTERS {
+        return Err(ExportError::TitleTooLong { ladder, count });
+    }
+    Ok(())
+}
+
+/// Checks the options against the diagram they will draw.
+pub fn validate(diagram: &Diagram, options: &SvgOptions) -> Result<(), ExportError> {
+    check_options(options)?;
     for (index, ladder) in diagram.ladders.iter().enumerate() {
-        if options.ladders.draws(index) && ladder.title.trim().is_empty() {
-            return Err(ExportError::EmptyTitle(if index == 0 {
-                "delocalized"
-            } else {
-                "localized"
-            }));
+        let name = if index == 0 {
+            "delocalized"
+        } else {
+            "localized"
+        };
+        if options.ladders.draws(index) {
+            check_title(&ladder.title, name)?;
         }
     }
     Ok(())

@@ -10,7 +10,9 @@ pub mod style;
 pub mod svg;
 
 pub use build::{DiagramOptions, diagram_for};
-pub use export::{ExportError, export_png, export_svg};
+pub use export::{
+    ExportError, check_options, check_png_options, check_title, export_png, export_svg,
+};
 pub use layout::{Diagram, LadderInput, LevelInput, LinkInput, Side, layout, layout_in};
 pub use png::{Resolution, rasterize, render_png};
 pub use svg::{Ladders, SvgOptions, to_svg};

@@ -16,6 +16,9 @@ pub use resvg::tiny_skia::Pixmap as RasterImage;
 pub const CSS_PIXELS_PER_INCH: f64 = 96.0;
 /// Largest raster side in pixels; keeps a typo in --dpi from allocating gigabytes.
 pub const MAX_RASTER_SIDE: u32 = 20_000;
+/// Largest raster in pixels (100 megapixels, 400 MB of RGBA): a poster at 600 dpi fits;
+/// the limit keeps an export within about 1 GB of memory.
+pub const MAX_RASTER_PIXELS: u64 = 100_000_000;
 
 /// How finely the SVG is rasterized.
 #[derive(Clone, Copy, Debug, PartialEq)]
@@ -35,6 +38,8 @@ pub enum PngError {
     BadPixelWidth(u32),
     #[error("the image would be {width}×{height} pixels, more than {MAX_RASTER_SIDE} per side")]
     TooLarge { width: u64, height: u64 },
+    #[error("the image would be {width}×{height} pixels, more than the limit of 100 megapixels")]
+    TooManyPixels { width: u64, height: u64 },
     #[error("the SVG could not be read: {0}")]
     Svg(String),
     #[error("the PNG could not be encoded: {0}")]
@@ -88,16 +93,14 @@ pub fn system_fonts() -> Arc<fontdb::Database> {
         .clone()
 }
 
-/// Renders an SVG document to an RGBA raster (premultiplied alpha, see tiny-skia).
-pub fn rasterize(svg: &str, resolution: Resolution) -> Result<Pixmap, PngError> {
-    let fonts = system_fonts();
-    let options = usvg::Options {
-        fontdb: fonts.clone(),
-        ..usvg::Options::default()
-    };
-    let tree = usvg::Tree::from_str(svg, &options).map_err(|e| PngError::Svg(e.to_string()))?;
-    let size = tree.size();
-    let (width_css, height_css) = (size.width() as f64, size.height() as f64);
+/// The raster size (pixels) of a `width_css` × `height_css` drawing at `resolution`,
+/// refused beyond [`MAX_RASTER_SIDE`] per side or [`MAX_RASTER_PIXELS`] in all. Callers
+/// check it before any work; `rasterize` checks it again.
+pub fn raster_size(
+    width_css: f64,
+    height_css: f64,
+    resolution: Resolution,
+) -> Result<(f64, f64), PngError> {
     let scale = match resolution {
         Resolution::Dpi(dpi) if dpi.is_finite() && dpi > 0.0 && dpi <= 2400.0 => {
             dpi / CSS_PIXELS_PER_INCH
@@ -108,12 +111,33 @@ pub fn rasterize(svg: &str, resolution: Resolution) -> Result<Pixmap, PngError> 
     };
     let width = (width_css * scale).round().max(1.0);
     let height = (height_css * scale).round().max(1.0);
+    let (w, h) = (width as u64, height as u64);
     if width > MAX_RASTER_SIDE as f64 || height > MAX_RASTER_SIDE as f64 {
         return Err(PngError::TooLarge {
-            width: width as u64,
-            height: height as u64,
+            width: w,
+            height: h,
         });
     }
+    if w * h > MAX_RASTER_PIXELS {
+        return Err(PngError::TooManyPixels {
+            width: w,
+            height: h,
+        });
+    }
+    Ok((width, height))
+}
+
+/// Renders an SVG document to an RGBA raster (premultiplied alpha, see tiny-skia).
+pub fn rasterize(svg: &str, resolution: Resolution) -> Result<Pixmap, PngError> {
+    let fonts = system_fonts();
+    let options = usvg::Options {
+        fontdb: fonts.clone(),
+        ..usvg::Options::default()
+    };
+    let tree = usvg::Tree::from_str(svg, &options).map_err(|e| PngError::Svg(e.to_string()))?;
+    let size = tree.size();
+    let (width_css, height_css) = (size.width() as f64, size.height() as f64);
+    let (width, height) = raster_size(width_css, height_css, resolution)?;
     let mut pixmap = Pixmap::new(width as u32, height as u32).ok_or(PngError::TooLarge {
         width: width as u64,
         height: height as u64,

@@ -79,7 +79,7 @@ pub enum EhtError {
 
 /// User settings of the extended Hückel stage.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(default)]
+#[serde(default, deny_unknown_fields)]
 pub struct EhtSettings {
     /// Hückel constant K (default 1.75).
     pub k: f64,

@@ -27,6 +27,7 @@ pub const MAX_L: u8 = 2;
 
 /// One valence shell of an element: all 2l + 1 real functions share n, ζ and the VSIP.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct ShellParameters {
     /// Principal quantum number (1 to 5).
     pub n: u8,
@@ -40,6 +41,7 @@ pub struct ShellParameters {
 
 /// The parameters of one element: its shells (s before p before d) and where they come from.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct ElementParameters {
     pub element: Element,
     pub shells: Vec<ShellParameters>,

@@ -43,7 +43,7 @@ use crate::eht::EhtResult;
 
 /// Settings of the hybrid stage.
 #[derive(Clone, Debug, Default, PartialEq, Serialize, Deserialize)]
-#[serde(default)]
+#[serde(default, deny_unknown_fields)]
 pub struct HybridSettings {
     pub model: HybridModel,
     pub lone_pair_convention: LonePairConvention,

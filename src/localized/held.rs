@@ -28,6 +28,7 @@ const INDEPENDENT_FRACTION: f64 = 0.3;
 /// One lone pair: the `index`-th lone-pair level of `atom` in the localized ladder
 /// (ascending energy), both 0-based.
 #[derive(Clone, Copy, Debug, PartialEq, Eq, PartialOrd, Ord, Hash, Serialize, Deserialize)]
+#[serde(deny_unknown_fields)]
 pub struct LonePairRef {
     pub atom: usize,
     pub index: usize,

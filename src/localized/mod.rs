@@ -52,7 +52,7 @@ pub use notes::LOW_LEWIS_SHARE;
 
 /// Settings of the localization.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(default)]
+#[serde(default, deny_unknown_fields)]
 pub struct LocalizationSettings {
     pub method: LocalizationMethod,
     /// Cap on the Jacobi sweeps of each space.

@@ -22,7 +22,11 @@ struct AtomEntry {
 struct BondEntry {
     a: usize,
     b: usize,
+    /// The order of one Kekulé structure for an aromatic bond.
     order: u8,
+    /// Present (true) only for aromatic bonds of a molfile.
+    #[serde(skip_serializing_if = "std::ops::Not::not")]
+    aromatic: bool,
     length: f64,
 }
 
@@ -100,6 +104,7 @@ fn molecule_entry(analysis: &Analysis) -> MoleculeEntry {
                 a: bond.a,
                 b: bond.b,
                 order: bond.order,
+                aromatic: bond.aromatic,
                 length: (molecule.atoms[bond.a].position - molecule.atoms[bond.b].position).norm(),
             })
             .collect(),

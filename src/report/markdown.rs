@@ -1,13 +1,18 @@
 //! The report as Markdown: a heading and one pipe table per section (the GitHub
 //! Flavored Markdown table extension, GFM spec 0.29 §4.10). Cell text escapes `|` and
-//! puts line breaks on one line, so every table row is one line.
+//! puts line breaks on one line, so every table row is one line; `&`, `<` and `>` become
+//! character references (GFM §6.6 raw HTML is then impossible), so a name can never put
+//! markup into a rendered report.
 
 use crate::analysis::Analysis;
 
 use super::tables::{Table, tables};
 
 fn cell(text: &str) -> String {
-    text.replace('\\', "\\\\")
+    text.replace('&', "&amp;")
+        .replace('<', "&lt;")
+        .replace('>', "&gt;")
+        .replace('\\', "\\\\")
         .replace('|', "\\|")
         .replace(['\r', '\n'], " ")
 }

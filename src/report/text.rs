@@ -31,8 +31,9 @@ pub fn to_text(analysis: &Analysis) -> String {
     }
     for bond in &molecule.bonds {
         let length = (molecule.atoms[bond.a].position - molecule.atoms[bond.b].position).norm();
+        let aromatic = if bond.aromatic { " (aromatic)" } else { "" };
         text.push_str(&format!(
-            "  {}{}–{}{}  order {}  {:.4} Å\n",
+            "  {}{}–{}{}  order {}{aromatic}  {:.4} Å\n",
             molecule.atoms[bond.a].element,
             bond.a,
             molecule.atoms[bond.b].element,

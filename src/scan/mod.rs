@@ -68,9 +68,13 @@ pub enum ScanError {
     BondLength { value: f64 },
     #[error("the range {from} to {to} is not a pair of finite numbers")]
     NonFiniteRange { from: f64, to: f64 },
-    #[error("{points} points: a scan needs at least {MIN_POINTS} (one point is a single analysis)")]
+    #[error(
+        "{points} points: a scan needs at least {MIN_POINTS} (one point is a single analysis; the range is {MIN_POINTS} to {MAX_POINTS})"
+    )]
     TooFewPoints { points: usize },
-    #[error("{points} points is more than the limit of {MAX_POINTS}")]
+    #[error(
+        "{points} points is more than the limit of {MAX_POINTS} (the range is {MIN_POINTS} to {MAX_POINTS})"
+    )]
     TooManyPoints { points: usize },
     #[error("the starting molecule is not valid: {0}")]
     InvalidMolecule(MoleculeError),

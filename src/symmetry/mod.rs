@@ -62,7 +62,7 @@ pub enum Numbering {
 
 /// User settings of the symmetry stage.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
-#[serde(default)]
+#[serde(default, deny_unknown_fields)]
 pub struct SymmetrySettings {
     /// Largest displacement (Å) for which an operation still counts as a symmetry.
     pub tolerance: f64,

@@ -1,8 +1,10 @@
-//! Reading and writing molecule files: XYZ and MDL molfile V2000.
+//! Reading and writing molecule files: XYZ and MDL molfile V2000; `write` is the one
+//! writer of every output file.
 //!
 //! Every parse error names the 1-based line number and what was expected there.
 
 pub mod molfile;
+pub mod write;
 pub mod xyz;
 
 use std::path::Path;
@@ -10,6 +12,7 @@ use std::path::Path;
 use thiserror::Error;
 
 use super::molecule::Molecule;
+pub use write::{Overwrite, WriteError, check_target, write_file};
 
 /// A file that could not be read as a molecule.
 #[derive(Debug, Clone, PartialEq, Error)]
@@ -70,8 +73,10 @@ pub fn read_text(path: &Path) -> Result<String, ParseError> {
     text_from_bytes(&bytes)
 }
 
-/// Bytes to text; a NUL byte or invalid UTF-8 means a binary file.
+/// Bytes to text; a NUL byte or invalid UTF-8 means a binary file. A UTF-8 byte-order
+/// mark (EF BB BF, which some editors write) is skipped.
 pub fn text_from_bytes(bytes: &[u8]) -> Result<String, ParseError> {
+    let bytes = bytes.strip_prefix(b"\xEF\xBB\xBF").unwrap_or(bytes);
     if bytes.contains(&0) {
         return Err(ParseError::NotText("it contains NUL bytes".into()));
     }
@@ -92,37 +97,18 @@ pub fn read_molecule_file(path: &Path) -> Result<Parsed, ParseError> {
         .file_stem()
         .and_then(|s| s.to_str())
         .unwrap_or("molecule")
-        .to_string();
+        .chars()
+        // A name taken from the file name is cut to the limit, not refused.
+        .take(super::molecule::MAX_NAME_CHARACTERS)
+        .collect::<String>();
     match format {
         MoleculeFormat::Xyz => xyz::parse_xyz(&text, &name),
         MoleculeFormat::Molfile => molfile::parse_molfile(&text, &name),
     }
 }
 
-/// Writes `contents` to `path` atomically: a temporary file in the same folder, flushed,
-/// then renamed over the target, so a crash never leaves a half-written file.
-pub fn write_atomically(path: &Path, contents: &[u8]) -> std::io::Result<()> {
-    use std::io::Write;
-    let folder = match path.parent() {
-        Some(parent) if !parent.as_os_str().is_empty() => parent.to_path_buf(),
-        _ => std::path::PathBuf::from("."),
-    };
-    let file_name = path
-        .file_name()
-        .ok_or_else(|| std::io::Error::new(std::io::ErrorKind::InvalidInput, "no file name"))?;
-    let temporary = folder.join(format!(
-        ".{}.{}.tmp",
-        file_name.to_string_lossy(),
-        std::process::id()
-    ));
-    let result = (|| {
-        let mut file = std::fs::File::create(&temporary)?;
-        file.write_all(contents)?;
-        file.sync_all()?;
-        std::fs::rename(&temporary, path)
-    })();
-    if result.is_err() {
-        let _ = std::fs::remove_file(&temporary);
-    }
-    result
+/// Writes `contents` to `path`, replacing what is there: [`write::write_file`] with
+/// [`Overwrite::Replace`] (temporary file, then a rename that keeps the old permissions).
+pub fn write_atomically(path: &Path, contents: &[u8]) -> Result<(), WriteError> {
+    write::write_file(path, contents, Overwrite::Replace)
 }

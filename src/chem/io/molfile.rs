@@ -3,7 +3,10 @@
 //!
 //! Atom charges come from the atom block's charge code (3 → +1 … 5 → −1) unless an
 //! `M  CHG` line is present, which then supersedes them, as the format prescribes.
-//! The bond list of the file replaces distance-based perception.
+//! The bond list of the file replaces distance-based perception. Aromatic bonds (type 4)
+//! are kept as aromatic and given a Kekulé structure (`Molecule::kekulize_aromatic`); a
+//! molfile whose header (line 2, columns 21–22) says 2D is refused, since a flat drawing
+//! is not a geometry.
 
 use super::xyz::shorten;
 use super::{ParseError, Parsed};
@@ -28,6 +31,7 @@ pub fn parse_molfile(text: &str, name: &str) -> Result<Parsed, ParseError> {
             "V3000 molfiles are not supported; save as V2000",
         ));
     }
+    refuse_two_dimensional(&lines)?;
     let atom_count = fixed_int(counts_line, 0, 4, "the atom count (columns 1–3)")?;
     let bond_count = fixed_int(counts_line, 3, 4, "the bond count (columns 4–6)")?;
     if atom_count == 0 {
@@ -92,10 +96,12 @@ pub fn parse_molfile(text: &str, name: &str) -> Result<Parsed, ParseError> {
                 format!("bond joins atom {a} to itself"),
             ));
         }
-        let order = match order {
-            1..=3 => order as u8,
-            // Aromatic (4) and query types: kept as single bonds for the Lewis count.
-            4..=8 => 1,
+        let (order, aromatic) = match order {
+            1..=3 => (order as u8, false),
+            // Aromatic: single until the Kekulé structure is assigned below.
+            4 => (1, true),
+            // Query types (single or double, single or aromatic, …): single.
+            5..=8 => (1, false),
             other => {
                 return Err(ParseError::at(
                     line_number,
@@ -103,10 +109,17 @@ pub fn parse_molfile(text: &str, name: &str) -> Result<Parsed, ParseError> {
                 ));
             }
         };
-        let bond = Bond::new(a - 1, b - 1, order);
-        if !bonds.iter().any(|old| old.a == bond.a && old.b == bond.b) {
-            bonds.push(bond);
+        let bond = Bond {
+            aromatic,
+            ..Bond::new(a - 1, b - 1, order)
+        };
+        if bonds.iter().any(|old| old.a == bond.a && old.b == bond.b) {
+            return Err(ParseError::at(
+                line_number,
+                format!("the bond {a}–{b} is listed twice; each pair may be bonded once"),
+            ));
         }
+        bonds.push(bond);
     }
     let mut property_charges: Option<Vec<i32>> = None;
     for (index, line) in lines.iter().enumerate().skip(4 + atom_count + bond_count) {
@@ -179,6 +192,7 @@ pub fn parse_molfile(text: &str, name: &str) -> Result<Parsed, ParseError> {
         bonds,
     };
     molecule.bonds.sort_by_key(|bond| (bond.a, bond.b));
+    molecule.kekulize_aromatic();
     let notices = if molecule.bonds.is_empty() && atom_count > 1 {
         molecule.perceive_bonds();
         vec!["the file lists no bonds; bonds were perceived from distances".to_string()]
@@ -186,6 +200,22 @@ pub fn parse_molfile(text: &str, name: &str) -> Result<Parsed, ParseError> {
         Vec::new()
     };
     Ok(Parsed { molecule, notices })
+}
+
+/// Refuses a molfile whose program line (line 2) gives the dimensional code "2D" in
+/// columns 21–22 (CTfile Formats, the header block).
+fn refuse_two_dimensional(lines: &[&str]) -> Result<(), ParseError> {
+    let code: String = lines
+        .get(1)
+        .map(|line| line.chars().skip(20).take(2).collect())
+        .unwrap_or_default();
+    if code.eq_ignore_ascii_case("2D") {
+        return Err(ParseError::at(
+            2,
+            "the molfile is a 2D drawing (its header says 2D); Diptych needs 3D coordinates: generate a 3D structure and save it again",
+        ));
+    }
+    Ok(())
 }
 
 /// A 3-character right-justified integer field starting at `start`.

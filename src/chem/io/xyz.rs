@@ -6,7 +6,7 @@
 
 use super::{ParseError, Parsed};
 use crate::chem::element::Element;
-use crate::chem::molecule::{Atom, MAX_ATOMS, Molecule};
+use crate::chem::molecule::{Atom, MAX_ATOMS, MAX_CHARGE, Molecule};
 
 /// Parses XYZ text; `name` becomes the molecule's name.
 pub fn parse_xyz(text: &str, name: &str) -> Result<Parsed, ParseError> {
@@ -115,15 +115,22 @@ fn parse_charge_token(comment: &str, line_number: usize) -> Result<i32, ParseErr
     for token in comment.split_whitespace() {
         let lower = token.to_ascii_lowercase();
         if let Some(value) = lower.strip_prefix("charge=") {
-            return value
-                .trim_end_matches([',', ';'])
-                .parse::<i32>()
+            let value = value.trim_end_matches([',', ';']);
+            let Ok(charge) = value.parse::<i64>() else {
+                return Err(ParseError::at(
+                    line_number,
+                    format!("expected an integer charge in '{}'", shorten(token)),
+                ));
+            };
+            return i32::try_from(charge)
                 .ok()
-                .filter(|c| c.abs() <= 100)
+                .filter(|c| c.unsigned_abs() <= MAX_CHARGE.unsigned_abs())
                 .ok_or_else(|| {
                     ParseError::at(
                         line_number,
-                        format!("expected an integer charge in '{}'", shorten(token)),
+                        format!(
+                            "the charge {charge} is out of range (it must be -{MAX_CHARGE} to {MAX_CHARGE})"
+                        ),
                     )
                 });
         }
@@ -148,13 +155,9 @@ pub fn write_xyz(molecule: &Molecule) -> String {
     text
 }
 
-/// At most 40 characters of user text for an error message.
+/// At most 40 characters of user text for an error message, control characters escaped.
 pub(crate) fn shorten(text: &str) -> String {
-    let mut short: String = text.chars().take(40).filter(|c| !c.is_control()).collect();
-    if text.chars().count() > 40 {
-        short.push('…');
-    }
-    short
+    crate::message::shown(text)
 }
 
 #[cfg(test)]
