@@ -9,7 +9,7 @@ use clap::{ArgGroup, Args};
 
 use diptych::scan::svg::{WalshSvgOptions, walsh_svg};
 use diptych::scan::{
-    Coordinate, MAX_POINTS, MIN_POINTS, ScanProgress, ScanRequest, csv::to_csv, run_scan,
+    Coordinate, MAX_POINTS, MIN_POINTS, Scan, ScanProgress, ScanRequest, csv::to_csv, run_scan,
 };
 
 use super::open_for_cli;
@@ -135,6 +135,31 @@ fn bad_input(message: impl std::fmt::Display) -> ExitCode {
     ExitCode::from(2)
 }
 
+/// Lists the failed points (the first [`SHOWN_FAILURES`]); when every point failed there
+/// is nothing to write: exit code 2.
+fn report_failures(scan: &Scan) -> Result<(), ExitCode> {
+    let failed = scan.failed_points();
+    for &p in failed.iter().take(SHOWN_FAILURES) {
+        let point = &scan.points[p];
+        eprintln!(
+            "diptych: point {p} ({}) failed: {}",
+            point.value,
+            point.failure.as_deref().unwrap_or("")
+        );
+    }
+    if failed.len() > SHOWN_FAILURES {
+        let more = failed.len() - SHOWN_FAILURES;
+        eprintln!("diptych: … and {more} more points failed");
+    }
+    if failed.len() == scan.points.len() {
+        return Err(bad_input(format!(
+            "nothing to write: all {} points of the scan failed; no file was written",
+            scan.points.len()
+        )));
+    }
+    Ok(())
+}
+
 pub(super) fn scan(args: &ScanArgs) -> ExitCode {
     let coordinate = match coordinate(args) {
         Ok(c) => c,
@@ -144,19 +169,19 @@ pub(super) fn scan(args: &ScanArgs) -> ExitCode {
         Ok(kind) => kind,
         Err(message) => return bad_input(message),
     };
-    if let Err(code) = check_replaceable(&args.output, args.force) {
-        return code;
-    }
-    let opened = match open_for_cli(&args.file, args.charge) {
-        Ok(opened) => opened,
-        Err(code) => return code,
-    };
     // A negative count is read, so that the message can say the range.
     let Ok(steps) = usize::try_from(args.steps) else {
         return bad_input(format!(
             "{} points: a scan has {MIN_POINTS} to {MAX_POINTS} points",
             args.steps
         ));
+    };
+    if let Err(code) = check_replaceable(&args.output, args.force) {
+        return code;
+    }
+    let opened = match open_for_cli(&args.file, args.charge) {
+        Ok(opened) => opened,
+        Err(code) => return code,
     };
     let settings = opened.project.settings.clone();
     let molecule = &opened.project.molecule;
@@ -175,26 +200,8 @@ pub(super) fn scan(args: &ScanArgs) -> ExitCode {
         Ok(scan) => scan,
         Err(error) => return bad_input(error),
     };
-    let failed = scan.failed_points();
-    for &p in failed.iter().take(SHOWN_FAILURES) {
-        let point = &scan.points[p];
-        eprintln!(
-            "diptych: point {p} ({}) failed: {}",
-            point.value,
-            point.failure.as_deref().unwrap_or("")
-        );
-    }
-    if failed.len() > SHOWN_FAILURES {
-        eprintln!(
-            "diptych: … and {} more points failed",
-            failed.len() - SHOWN_FAILURES
-        );
-    }
-    if failed.len() == scan.points.len() {
-        return bad_input(format!(
-            "nothing to write: all {} points of the scan failed; no file was written",
-            scan.points.len()
-        ));
+    if let Err(code) = report_failures(&scan) {
+        return code;
     }
     let text = match kind {
         Output::Csv => to_csv(&scan),
