@@ -119,8 +119,12 @@ pub enum MoleculeError {
         "atoms {a} and {b} are not bonded to each other but are joined through other atoms, so neither side can move alone; scan a bond, or a distance between separate fragments"
     )]
     JoinedElsewhere { a: usize, b: usize },
-    #[error("{what} of {value} is not possible")]
-    ImpossibleValue { what: &'static str, value: f64 },
+    #[error("{what} of {value} is not possible (it must be {allowed})")]
+    ImpossibleValue {
+        what: &'static str,
+        value: f64,
+        allowed: &'static str,
+    },
     #[error("the charge {charge} is out of range (it must be -{MAX_CHARGE} to {MAX_CHARGE})")]
     ChargeOutOfRange { charge: i32 },
     #[error("the name has {count} characters; the limit is {MAX_NAME_CHARACTERS}")]
@@ -516,6 +520,7 @@ impl Molecule {
             return Err(MoleculeError::ImpossibleValue {
                 what: "a bond length",
                 value: length,
+                allowed: "at least 0.5 Å",
             });
         }
         let (mask, moves_j) = self.moving_side(i, j)?;
@@ -541,6 +546,7 @@ impl Molecule {
             return Err(MoleculeError::ImpossibleValue {
                 what: "an angle",
                 value: degrees,
+                allowed: "above 0° and at most 180°",
             });
         }
         let (mask, moves_k) = self.moving_side(j, k)?;
@@ -590,6 +596,7 @@ impl Molecule {
             return Err(MoleculeError::ImpossibleValue {
                 what: "a dihedral",
                 value: degrees,
+                allowed: "a finite number of degrees",
             });
         }
         let (mask, moves_k) = self.moving_side(j, k)?;

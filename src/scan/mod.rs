@@ -64,7 +64,7 @@ pub enum ScanError {
         ligands: usize,
         widest: f64,
     },
-    #[error("a bond length of {value} Å is not possible")]
+    #[error("a bond length of {value} Å is not possible (it must be at least {MIN_SEPARATION} Å)")]
     BondLength { value: f64 },
     #[error("the range {from} to {to} is not a pair of finite numbers")]
     NonFiniteRange { from: f64, to: f64 },
