@@ -42,7 +42,13 @@ fn negative_values_get_our_range_messages() {
     let out = folder.path().join("out.svg");
     let out = out.to_string_lossy();
     let water = "demo_molecules/water.xyz";
-    let cases: [(Vec<&str>, &str); 4] = [
+    let cases: [(Vec<&str>, &str); 5] = [
+        (
+            vec![
+                "scan", water, "--bond", "0,1", "--from", "-1", "--to", "1", "--steps", "2",
+            ],
+            "a bond length of -1 is not possible (it must be at least 0.5 Å)",
+        ),
         (
             vec![
                 "scan", water, "--bond", "0,1", "--from", "1", "--to", "2", "--steps", "-2",
