@@ -49,21 +49,26 @@ impl Dialogs {
     }
 
     /// Without a system dialog, asks in the window instead; true when it did.
-    fn prompted(
-        &self,
-        title: &'static str,
-        text: String,
-        answer: fn(PathBuf) -> DialogAnswer,
-    ) -> bool {
+    fn prompted(&self, prompt: PathPrompt) -> bool {
         if self.system_dialog {
             return false;
         }
-        *self.prompt.borrow_mut() = Some(PathPrompt {
+        *self.prompt.borrow_mut() = Some(prompt);
+        true
+    }
+
+    /// The in-app question for a file to save (see `prompted`).
+    fn save_prompt(
+        title: &'static str,
+        text: String,
+        answer: fn(PathBuf) -> DialogAnswer,
+    ) -> PathPrompt {
+        PathPrompt {
             title,
             text,
             answer,
-        });
-        true
+            saves: true,
+        }
     }
 
     /// Draws the in-app path field, if one is asked for, and passes its answer on.
@@ -82,11 +87,13 @@ impl Dialogs {
     }
 
     pub fn ask_open(&self) {
-        if self.prompted(
-            "Open a molecule or project",
-            String::new(),
-            DialogAnswer::Open,
-        ) {
+        let prompt = PathPrompt {
+            title: "Open a molecule or project",
+            text: String::new(),
+            answer: DialogAnswer::Open,
+            saves: false,
+        };
+        if self.prompted(prompt) {
             return;
         }
         let sender = self.sender.clone();
@@ -104,7 +111,11 @@ impl Dialogs {
 
     pub fn ask_save_as(&self, suggested: String) {
         let file_name = format!("{suggested}.diptych.ron");
-        if self.prompted("Save the project", file_name, DialogAnswer::SaveAs) {
+        if self.prompted(Self::save_prompt(
+            "Save the project",
+            file_name,
+            DialogAnswer::SaveAs,
+        )) {
             return;
         }
         let sender = self.sender.clone();
@@ -137,7 +148,11 @@ impl Dialogs {
 
     pub fn ask_export_report(&self, suggested: String) {
         let file_name = format!("{suggested}-report.md");
-        if self.prompted("Export the report", file_name, DialogAnswer::ExportReport) {
+        if self.prompted(Self::save_prompt(
+            "Export the report",
+            file_name,
+            DialogAnswer::ExportReport,
+        )) {
             return;
         }
         let sender = self.sender.clone();
@@ -191,7 +206,7 @@ impl Dialogs {
         filter: (&'static str, &'static [&'static str]),
         answer: fn(PathBuf) -> DialogAnswer,
     ) {
-        if self.prompted(title, file_name.clone(), answer) {
+        if self.prompted(Self::save_prompt(title, file_name.clone(), answer)) {
             return;
         }
         let sender = self.sender.clone();

@@ -25,6 +25,9 @@ pub struct PathPrompt {
     pub title: &'static str,
     pub text: String,
     pub answer: fn(PathBuf) -> DialogAnswer,
+    /// A save: an existing file at the typed path is named before OK replaces it, as a
+    /// system save dialog would ask.
+    pub saves: bool,
 }
 
 /// Why the field is shown, in the window.
@@ -48,6 +51,13 @@ pub fn show(ctx: &egui::Context, prompt: &mut PathPrompt) -> (Option<DialogAnswe
                 })
                 .inner;
             let entered = field.lost_focus() && ui.input(|i| i.key_pressed(egui::Key::Enter));
+            let typed = Path::new(prompt.text.trim());
+            if prompt.saves && !prompt.text.trim().is_empty() && typed.symlink_metadata().is_ok() {
+                ui.colored_label(
+                    ui.visuals().warn_fg_color,
+                    "A file of this name exists: OK replaces it.",
+                );
+            }
             ui.horizontal(|ui| {
                 let usable = !prompt.text.trim().is_empty();
                 if (ui.add_enabled(usable, egui::Button::new("OK")).clicked() || entered) && usable

@@ -131,3 +131,33 @@ fn without_a_system_dialog_a_typed_path_opens_the_file() {
             .is_none()
     );
 }
+
+#[test]
+fn a_typed_save_path_that_exists_is_named_before_it_is_replaced() {
+    let mut harness = harness();
+    harness.step();
+    harness.state_mut().dialogs = super::menus::Dialogs::with_system_dialog(false);
+    let folder = tempfile::tempdir().expect("temp");
+    let existing = folder.path().join("kept.diptych.ron");
+    std::fs::write(&existing, b"old").expect("written");
+    harness
+        .state()
+        .dialogs
+        .ask_save_as("no-such-file-here".into());
+    harness.run_steps(2);
+    assert!(
+        harness.query_by_label_contains("OK replaces it").is_none(),
+        "a new name"
+    );
+    // The suggested name is the existing file's.
+    let stem = folder.path().join("kept");
+    harness
+        .state()
+        .dialogs
+        .ask_save_as(stem.to_string_lossy().into_owned());
+    harness.run_steps(2);
+    harness.get_by_label_contains("A file of this name exists: OK replaces it.");
+    harness.get_by_label("Cancel").click();
+    harness.run_steps(2);
+    assert_eq!(std::fs::read(&existing).expect("still there"), b"old");
+}
