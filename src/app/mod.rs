@@ -36,6 +36,7 @@ mod window_tests;
 
 use std::path::PathBuf;
 
+use diptych::chem::molecule::MAX_NAME_CHARACTERS;
 use diptych::project::Opened;
 use eframe::egui;
 
@@ -245,11 +246,19 @@ impl DiptychApp {
             ui.add_space(8.0);
             let titles = &mut self.state.project.titles;
             let left_label = ui.label("Left title");
-            ui.add(egui::TextEdit::singleline(&mut titles.delocalized).desired_width(160.0))
-                .labelled_by(left_label.id);
+            ui.add(
+                egui::TextEdit::singleline(&mut titles.delocalized)
+                    .desired_width(160.0)
+                    .char_limit(MAX_NAME_CHARACTERS),
+            )
+            .labelled_by(left_label.id);
             let right_label = ui.label("Right title");
-            ui.add(egui::TextEdit::singleline(&mut titles.localized).desired_width(160.0))
-                .labelled_by(right_label.id);
+            ui.add(
+                egui::TextEdit::singleline(&mut titles.localized)
+                    .desired_width(160.0)
+                    .char_limit(MAX_NAME_CHARACTERS),
+            )
+            .labelled_by(right_label.id);
         });
         ui.horizontal_wrapped(|ui| {
             let settings = &mut self.state.project.settings;
