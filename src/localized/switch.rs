@@ -93,23 +93,9 @@ pub fn hold(
     let alpha = DMatrix::from_diagonal(&DVector::from_column_slice(atomic));
     let held_block = held_basis.transpose() * alpha * &held_basis;
     let free_block = free_basis.transpose() * mixed.hamiltonian * &free_basis;
-    let (held_energies, held_vectors) = solve_block(&held_block, &held_basis);
-    let (free_energies, free_vectors) = solve_block(&free_block, &free_basis);
-    let mut levels: Vec<(f64, bool, DVector<f64>)> = held_energies
-        .into_iter()
-        .zip(held_vectors)
-        .map(|(e, v)| (e, true, v))
-        .chain(
-            free_energies
-                .into_iter()
-                .zip(free_vectors)
-                .map(|(e, v)| (e, false, v)),
-        )
-        .collect();
-    levels.sort_by(|a, b| a.0.total_cmp(&b.0).then(b.1.cmp(&a.1)));
-    let energies: Vec<f64> = levels.iter().map(|l| l.0).collect();
-    let held_levels: Vec<usize> = (0..levels.len()).filter(|&k| levels[k].1).collect();
-    let coefficients = DMatrix::from_columns(&levels.into_iter().map(|l| l.2).collect::<Vec<_>>());
+    let held_levels = solve_block(&held_block, &held_basis);
+    let free_levels = solve_block(&free_block, &free_basis);
+    let (energies, coefficients, held_levels) = merged(held_levels, free_levels);
     let (occupations, open_shell, notes) = occupy(mixed, &energies, &coefficients, &held_levels);
     let overlaps = (coefficients.transpose() * mixed.coefficients).map(f64::abs);
     let paired = match_levels(&overlaps);
@@ -176,6 +162,27 @@ fn complement(held_basis: &DMatrix<f64>, n: usize) -> Result<DMatrix<f64>, Mixin
     let k = vectors.len();
     let full = completed_basis(vectors, n).ok_or(MixingError::NotOrthonormal { deviation: 1.0 })?;
     Ok(full.columns(k, n - k).into_owned())
+}
+
+/// The levels of both blocks in one ascending list (a held level first on a tie): their
+/// energies, their vectors as columns, and which of them are held.
+fn merged(
+    held: (Vec<f64>, Vec<DVector<f64>>),
+    free: (Vec<f64>, Vec<DVector<f64>>),
+) -> (Vec<f64>, DMatrix<f64>, Vec<usize>) {
+    let tagged = |(energies, vectors): (Vec<f64>, Vec<DVector<f64>>), is_held: bool| {
+        energies
+            .into_iter()
+            .zip(vectors)
+            .map(move |(e, v)| (e, is_held, v))
+    };
+    let mut levels: Vec<(f64, bool, DVector<f64>)> =
+        tagged(held, true).chain(tagged(free, false)).collect();
+    levels.sort_by(|a, b| a.0.total_cmp(&b.0).then(b.1.cmp(&a.1)));
+    let energies = levels.iter().map(|l| l.0).collect();
+    let held_levels = (0..levels.len()).filter(|&k| levels[k].1).collect();
+    let columns: Vec<DVector<f64>> = levels.into_iter().map(|l| l.2).collect();
+    (energies, DMatrix::from_columns(&columns), held_levels)
 }
 
 /// Eigenvalues (ascending) and eigenvectors, mapped back by `basis`, of one block.
