@@ -113,22 +113,11 @@ pub(super) fn apply(
         &atomic,
         request.convention,
     );
-    let mut choices: Vec<LonePairChoice> = candidates
-        .iter()
-        .map(|c| LonePairChoice {
-            lone_pair: c.lone_pair,
-            label: localized[c.level].label.clone(),
-            central: c.central,
-            held: request.selection.holds(c),
-        })
-        .collect();
-    // By atom, then by the lone pair's rank on it (the ladder lists them by energy).
-    choices.sort_by_key(|c| c.lone_pair);
     notes.extend(unmatched_choices(&candidates, request.selection));
     let mut summary = SwitchSummary {
         mixing: request.mixing,
         convention: request.convention,
-        choices,
+        choices: choices(&candidates, localized, request.selection),
         held: Vec::new(),
         disabled: None,
     };
@@ -163,6 +152,26 @@ pub(super) fn apply(
         shifts,
         notes,
     })
+}
+
+/// The lone pairs as the window and reports list them: by atom, then by the lone pair's
+/// rank on it (the ladder lists them by energy).
+fn choices(
+    candidates: &[LonePairCandidate],
+    localized: &[LocalizedSummary],
+    selection: &HeldLonePairs,
+) -> Vec<LonePairChoice> {
+    let mut choices: Vec<LonePairChoice> = candidates
+        .iter()
+        .map(|c| LonePairChoice {
+            lone_pair: c.lone_pair,
+            label: localized[c.level].label.clone(),
+            central: c.central,
+            held: selection.holds(c),
+        })
+        .collect();
+    choices.sort_by_key(|c| c.lone_pair);
+    choices
 }
 
 /// The one-line reason nothing is held.

@@ -153,46 +153,6 @@ pub fn diagram_for(analysis: &Analysis, options: &DiagramOptions) -> Diagram {
 /// The switch's state and, when levels carry dotted marks, their legend.
 fn caption(analysis: &Analysis, diagram: &Diagram) -> Caption {
     let mixing = analysis.settings.lone_pair_mixing;
-    let switch_state = analysis.lone_pair_switch.as_ref().and_then(|switch| {
-        if let Some(reason) = &switch.disabled {
-            return (!mixing).then(|| format!("Lone-pair mixing off, nothing held: {reason}"));
-        }
-        // "n(N) on N0", or "2 n(O) on O0" for two lone pairs of one atom.
-        let mut held: Vec<(String, usize)> = Vec::new();
-        for choice in switch.choices.iter().filter(|c| c.held) {
-            let name = format!(
-                "{} on {}",
-                choice.label,
-                atom_name(analysis, choice.lone_pair.atom)
-            );
-            match held.iter_mut().find(|(known, _)| *known == name) {
-                Some((_, count)) => *count += 1,
-                None => held.push((name, 1)),
-            }
-        }
-        let held: Vec<String> = held
-            .into_iter()
-            .map(|(name, count)| {
-                if count > 1 {
-                    format!("{count} {name}")
-                } else {
-                    name
-                }
-            })
-            .collect();
-        let what = match switch.convention {
-            HoldConvention::FirstOrder => "its centre's p orbital",
-            HoldConvention::Hybrid => "its hybrid",
-        };
-        Some(if mixing {
-            "Lone-pair mixing on".to_string()
-        } else {
-            format!(
-                "Lone-pair mixing off: {} held non-bonding ({what})",
-                held.join(", ")
-            )
-        })
-    });
     let shifted = diagram
         .ladders
         .iter()
@@ -204,7 +164,51 @@ fn caption(analysis: &Analysis, diagram: &Diagram) -> Caption {
         )
     });
     Caption {
-        switch_state,
+        switch_state: switch_state(analysis),
         shift_legend,
     }
+}
+
+/// "Lone-pair mixing off: n(N) on N0 held non-bonding (its centre's p orbital)", or why
+/// nothing is held when mixing is off; None when there is nothing to say.
+fn switch_state(analysis: &Analysis) -> Option<String> {
+    let mixing = analysis.settings.lone_pair_mixing;
+    let switch = analysis.lone_pair_switch.as_ref()?;
+    if let Some(reason) = &switch.disabled {
+        return (!mixing).then(|| format!("Lone-pair mixing off, nothing held: {reason}"));
+    }
+    if mixing {
+        return Some("Lone-pair mixing on".to_string());
+    }
+    // "n(N) on N0", or "2 n(O) on O0" for two lone pairs of one atom.
+    let mut held: Vec<(String, usize)> = Vec::new();
+    for choice in switch.choices.iter().filter(|c| c.held) {
+        let name = format!(
+            "{} on {}",
+            choice.label,
+            atom_name(analysis, choice.lone_pair.atom)
+        );
+        match held.iter_mut().find(|(known, _)| *known == name) {
+            Some((_, count)) => *count += 1,
+            None => held.push((name, 1)),
+        }
+    }
+    let held: Vec<String> = held
+        .into_iter()
+        .map(|(name, count)| {
+            if count > 1 {
+                format!("{count} {name}")
+            } else {
+                name
+            }
+        })
+        .collect();
+    let what = match switch.convention {
+        HoldConvention::FirstOrder => "its centre's p orbital",
+        HoldConvention::Hybrid => "its hybrid",
+    };
+    Some(format!(
+        "Lone-pair mixing off: {} held non-bonding ({what})",
+        held.join(", ")
+    ))
 }

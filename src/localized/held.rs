@@ -184,15 +184,7 @@ pub fn held_orbitals(
             continue;
         }
         if !push_orthonormal(&mut same_atom, vector, INDEPENDENT_FRACTION) {
-            notes.push(format!(
-                "lone pair {} of atom {} is not held: its {} adds no direction its centre's earlier held orbitals lack",
-                candidate.lone_pair.index + 1,
-                atom,
-                match convention {
-                    HoldConvention::FirstOrder => "p orbital",
-                    HoldConvention::Hybrid => "hybrid",
-                }
-            ));
+            notes.push(dependent_note(candidate.lone_pair, convention));
             continue;
         }
         let vector = same_atom.pop().unwrap_or_default();
@@ -204,6 +196,19 @@ pub fn held_orbitals(
         });
     }
     (held, notes)
+}
+
+/// Why a lone pair adds nothing to its centre's held orbitals.
+fn dependent_note(lone_pair: LonePairRef, convention: HoldConvention) -> String {
+    let what = match convention {
+        HoldConvention::FirstOrder => "p orbital",
+        HoldConvention::Hybrid => "hybrid",
+    };
+    format!(
+        "lone pair {} of atom {} is not held: its {what} adds no direction its centre's earlier held orbitals lack",
+        lone_pair.index + 1,
+        lone_pair.atom
+    )
 }
 
 /// Σ_μ c_μ² α_μ: the energy of a one-centre orbital in its free atom.
