@@ -83,6 +83,9 @@ pub struct Project {
     /// The orbital shown in the Inspector, by its label.
     #[serde(default)]
     pub selected_orbital: Option<String>,
+    /// Measured vertical ionization energies of the molecule with their source (for series).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub ionization: Option<crate::series::measured::IonizationRecord>,
 }
 
 /// A project file that could not be read or written.
@@ -126,6 +129,7 @@ impl Project {
             titles: LadderTitles::default(),
             view: ViewOptions::default(),
             selected_orbital: None,
+            ionization: None,
         }
     }
 

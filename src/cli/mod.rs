@@ -1,6 +1,7 @@
 //! Command-line parsing (clap) and the subcommands of DESIGN §5.4; each subcommand that
 //! writes a file lives in its own module here.
 
+mod compare;
 mod export;
 mod map;
 mod output;
@@ -61,6 +62,9 @@ enum Command {
     Scan(scan::ScanArgs),
     /// Write the map of one orbital on a plane (contours, atoms, bonds) as an SVG file.
     Map(map::MapArgs),
+    /// Compare a series of molecules: donor lone pairs, frontier orbitals and charges, and
+    /// −ε against measured ionization energies, as CSV, Markdown, SVG plots or JSON.
+    Compare(compare::CompareArgs),
 }
 
 /// The hybrid models of DESIGN §4.4.
@@ -211,6 +215,7 @@ pub fn main() -> ExitCode {
         Some(Command::Report(args)) => report::report(&args),
         Some(Command::Scan(args)) => scan::scan(&args),
         Some(Command::Map(args)) => map::map(&args),
+        Some(Command::Compare(args)) => compare::compare(&args),
         None => open_window(cli.file, cli.screenshot, cli.force),
     }
 }
