@@ -9,7 +9,7 @@ use std::process::Command;
 
 use diptych::project::{Project, open_path};
 use diptych::series::measured::IonizationRecord;
-use diptych::series::project::{MemberSource, SeriesMember, SeriesProject, SERIES_VERSION};
+use diptych::series::project::{MemberSource, SERIES_VERSION, SeriesMember, SeriesProject};
 use diptych::series::{self, DonorChoice};
 use series_support::{DEMO_DONORS, demo_inputs, repository};
 
@@ -68,12 +68,15 @@ fn a_series_with_embedded_molecules_round_trips_and_its_choices_are_used() {
     document.save(&path).expect("saves");
     let again = SeriesProject::load(&path).expect("reopens");
     assert_eq!(again, document);
-    let compared = series::compare(&again.inputs(folder.path()).expect("members open"))
-        .expect("analyses");
+    let compared =
+        series::compare(&again.inputs(folder.path()).expect("members open")).expect("analyses");
     let water_row = &compared.rows[0];
     // The member's own value (its lowest) and source, not the bundled table's.
     let measured = water_row.measured.as_ref().expect("measured");
-    assert_eq!((measured.energy_ev, measured.source.as_str()), (12.6, "our own measurement"));
+    assert_eq!(
+        (measured.energy_ev, measured.source.as_str()),
+        (12.6, "our own measurement")
+    );
     // RichestInS(0): the in-plane σ lone pair, not the higher p lone pair.
     let donor = water_row.donor.as_ref().expect("donor");
     assert!(donor.s_percent.unwrap_or(0.0) > 20.0);
@@ -95,7 +98,10 @@ fn a_project_keeps_its_measured_values() {
     let text = project.to_ron().expect("writes");
     assert_eq!(Project::from_ron(&text).expect("reads"), project);
     let broken = text.replace("10.85", "-3.0");
-    assert!(Project::from_ron(&broken).is_err(), "a negative energy is refused");
+    assert!(
+        Project::from_ron(&broken).is_err(),
+        "a negative energy is refused"
+    );
 }
 
 #[test]
@@ -108,7 +114,10 @@ fn bad_series_documents_are_refused() {
             "at most 100",
         ),
         (format!("(version: 9, members: [{ammonia}])"), "newer"),
-        (format!("(version: 1, members: [{ammonia}], colour: 3)"), "colour"),
+        (
+            format!("(version: 1, members: [{ammonia}], colour: 3)"),
+            "colour",
+        ),
         (
             format!(
                 "(version: 1, members: [(source: File(\"a.xyz\"), ionization: Some((vertical_ev: [1e9], source: \"x\")))])"
@@ -117,7 +126,9 @@ fn bad_series_documents_are_refused() {
         ),
     ];
     for (text, expected) in &cases {
-        let error = SeriesProject::from_ron(text).expect_err("refused").to_string();
+        let error = SeriesProject::from_ron(text)
+            .expect_err("refused")
+            .to_string();
         assert!(error.contains(expected), "{error}");
         assert_eq!(error.lines().count(), 1, "{error}");
     }
@@ -134,8 +145,11 @@ fn bad_series_documents_are_refused() {
     assert_eq!(stderr.trim_end().lines().count(), 1, "{stderr}");
     // A member file that does not exist names the member.
     let missing = folder.path().join("missing.diptych-series.ron");
-    std::fs::write(&missing, "(version: 1, members: [(source: File(\"nowhere.xyz\"))])")
-        .expect("written");
+    std::fs::write(
+        &missing,
+        "(version: 1, members: [(source: File(\"nowhere.xyz\"))])",
+    )
+    .expect("written");
     let error = SeriesProject::load(&missing)
         .expect("reads")
         .inputs(folder.path())

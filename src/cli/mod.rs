@@ -306,6 +306,16 @@ fn open_window(file: Option<PathBuf>, screenshot: Option<PathBuf>, force: bool) 
         path,
         overwrite: output::overwrite(force),
     });
+    let (file, series) = match file {
+        Some(path) if diptych::series::project::is_series_path(&path) => {
+            if let Err(error) = diptych::series::project::SeriesProject::load(&path) {
+                eprintln!("diptych: {}: {error}", path.display());
+                return ExitCode::from(2);
+            }
+            (None, Some(path))
+        }
+        other => (other, None),
+    };
     let opened = match file {
         Some(path) => match open_for_cli(&path, None) {
             Ok(opened) => Some((opened, path)),
@@ -313,7 +323,7 @@ fn open_window(file: Option<PathBuf>, screenshot: Option<PathBuf>, force: bool) 
         },
         None => None,
     };
-    match crate::app::run(opened, screenshot) {
+    match crate::app::run(opened, screenshot, series) {
         Ok(()) => ExitCode::SUCCESS,
         Err(message) => {
             eprintln!("diptych: {message}");
