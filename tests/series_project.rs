@@ -119,9 +119,8 @@ fn bad_series_documents_are_refused() {
             "colour",
         ),
         (
-            format!(
-                "(version: 1, members: [(source: File(\"a.xyz\"), ionization: Some((vertical_ev: [1e9], source: \"x\")))])"
-            ),
+            "(version: 1, members: [(source: File(\"a.xyz\"), ionization: Some((vertical_ev: [1e9], source: \"x\")))])"
+                .to_string(),
             "between 0 and",
         ),
     ];

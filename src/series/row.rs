@@ -261,7 +261,7 @@ pub fn axis_angle(direction: [f64; 3], axis: [f64; 3]) -> Option<f64> {
     let dot: f64 = direction.iter().zip(&axis).map(|(a, b)| a * b).sum();
     let norms = direction.iter().map(|v| v * v).sum::<f64>().sqrt()
         * axis.iter().map(|v| v * v).sum::<f64>().sqrt();
-    if !(norms > 1e-12) {
+    if norms.is_nan() || norms <= 1e-12 {
         return None;
     }
     let cosine = (dot / norms).abs().min(1.0);
