@@ -156,3 +156,24 @@ fn bad_series_documents_are_refused() {
         .to_string();
     assert!(error.starts_with("member 0:"), "{error}");
 }
+
+#[test]
+fn the_command_line_gives_the_library_numbers_for_the_demo_series() {
+    let path = repository().join("demo_molecules/donors.diptych-series.ron");
+    let document = SeriesProject::load(&path).expect("reads");
+    let inputs = document
+        .inputs(path.parent().expect("folder"))
+        .expect("members open");
+    let library: serde_json::Value = serde_json::from_str(&series::to_json(
+        &series::compare(&inputs).expect("analyses"),
+    ))
+    .expect("JSON");
+    let output = Command::new(env!("CARGO_BIN_EXE_diptych"))
+        .args(["compare", "--format", "json"])
+        .arg(&path)
+        .output()
+        .expect("runs");
+    assert!(output.status.success());
+    let cli: serde_json::Value = serde_json::from_slice(&output.stdout).expect("JSON");
+    assert_eq!(cli, library);
+}
