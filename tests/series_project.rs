@@ -177,3 +177,35 @@ fn the_command_line_gives_the_library_numbers_for_the_demo_series() {
     let cli: serde_json::Value = serde_json::from_slice(&output.stdout).expect("JSON");
     assert_eq!(cli, library);
 }
+
+#[test]
+fn donors_are_chosen_in_the_document_as_the_readme_spells_them() {
+    let text = "(version: 1, members: [\
+        (source: File(\"water.xyz\"), donor: RichestInS(0)),\
+        (source: File(\"ammonia.xyz\"), donor: Atom(0)),\
+        (source: File(\"nitrogen_trifluoride.xyz\"), donor: Highest),\
+        (source: File(\"water.xyz\"), donor: RichestInSOnDonorAtom),\
+        (source: File(\"water.xyz\"), donor: Auto)])";
+    let document = SeriesProject::from_ron(text).expect("reads");
+    let inputs = document
+        .inputs(&repository().join("demo_molecules"))
+        .expect("members open");
+    let rows = series::compare(&inputs).expect("analyses").rows;
+    let s = |k: usize| {
+        rows[k]
+            .donor
+            .as_ref()
+            .and_then(|d| d.s_percent)
+            .unwrap_or(-1.0)
+    };
+    let element = |k: usize| rows[k].donor.as_ref().map(|d| d.element.clone());
+    assert!(s(0) > 20.0, "water's σ lone pair");
+    assert_eq!(element(1).as_deref(), Some("N"));
+    assert_eq!(
+        element(2).as_deref(),
+        Some("F"),
+        "NF3's literal highest lone pair"
+    );
+    assert_eq!(s(3), s(0), "σ lone pair on the auto donor's atom");
+    assert!(s(4) < 1.0, "auto: water's highest lone pair is 1b1, pure p");
+}

@@ -34,8 +34,9 @@ pub use row::{DonorLonePair, FrontierLevel, SeriesRow};
 pub const MAX_MOLECULES: usize = 100;
 
 /// Which lone pair of a molecule is its donor.
+/// In series documents: `Auto`, `Highest`, `Atom(2)`, `RichestInS(0)`,
+/// `RichestInSOnDonorAtom`.
 #[derive(Clone, Debug, Default, PartialEq, Eq, Serialize, Deserialize)]
-#[serde(rename_all = "snake_case")]
 pub enum DonorChoice {
     /// The highest occupied lone pair on an atom with two or more bonded partners (the
     /// lone-pair switch's central atoms) when the molecule has one, else the highest
