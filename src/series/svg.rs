@@ -147,7 +147,7 @@ pub fn series_svg(series: &Series, options: &SeriesSvgOptions) -> String {
         escape_xml(&title)
     );
     let half = w / 2.0;
-    let (top, bottom) = (60.0, h - 150.0);
+    let (top, bottom) = (60.0, h - 120.0);
     energy_against_s(&mut svg, series, (75.0, half - 40.0, top, bottom), options);
     koopmans(
         &mut svg,
@@ -190,8 +190,11 @@ fn energy_against_s(
         "ε(lone pair) (eV)",
         options,
     );
-    let xy: Vec<(f64, f64, &SeriesRow)> = points.clone();
-    markers(svg, &panel, &xy, Marker::Diamond, LONE_PAIR_RGB, options);
+    let marks = Marks {
+        marker: Marker::Diamond,
+        rgb: LONE_PAIR_RGB,
+    };
+    markers(svg, &panel, &points, marks, &mut Vec::new(), options);
     if points.is_empty() {
         no_data(
             svg,
@@ -251,13 +254,22 @@ fn koopmans(
         " stroke-dasharray=\"6 4\"",
         options,
     );
-    markers(svg, &panel, &homo_points, Marker::Circle, HOMO_RGB, options);
+    let mut placed = Vec::new();
+    let homo_marks = Marks {
+        marker: Marker::Circle,
+        rgb: HOMO_RGB,
+    };
+    let lone_pair_marks = Marks {
+        marker: Marker::Diamond,
+        rgb: LONE_PAIR_RGB,
+    };
+    markers(svg, &panel, &homo_points, homo_marks, &mut placed, options);
     markers(
         svg,
         &panel,
         &lone_pair_points,
-        Marker::Diamond,
-        LONE_PAIR_RGB,
+        lone_pair_marks,
+        &mut placed,
         options,
     );
     if homo_points.is_empty() {
@@ -348,20 +360,58 @@ enum Marker {
     Diamond,
 }
 
+/// How one set of points is drawn.
+#[derive(Clone, Copy)]
+struct Marks {
+    marker: Marker,
+    rgb: [u8; 3],
+}
+
+/// A label's box: left, top, right, bottom.
+type LabelBox = [f64; 4];
+
+/// Where a label of `width` × `height` goes beside the point (px, py): the first of a few
+/// positions stepping down and up by a line that overlaps no label placed before.
+fn place_label(
+    placed: &mut Vec<LabelBox>,
+    px: f64,
+    py: f64,
+    width: f64,
+    height: f64,
+) -> (f64, f64) {
+    let overlaps =
+        |b: &LabelBox, c: &LabelBox| b[0] < c[2] && c[0] < b[2] && b[1] < c[3] && c[1] < b[3];
+    let x = px + 7.0;
+    let base = py - 5.0;
+    let steps = [0.0, 1.0, -1.0, 2.0, -2.0, 3.0, -3.0];
+    let y = steps
+        .iter()
+        .map(|k| base + k * height)
+        .find(|y| {
+            let candidate = [x, y - height, x + width, *y];
+            !placed.iter().any(|b| overlaps(b, &candidate))
+        })
+        .unwrap_or(base);
+    placed.push([x, y - height, x + width, y]);
+    (x, y)
+}
+
 /// Points with their formula beside them; each point is a group titled by the molecule.
 fn markers(
     svg: &mut String,
     panel: &Panel,
     points: &[(f64, f64, &SeriesRow)],
-    marker: Marker,
-    rgb: [u8; 3],
+    marks: Marks,
+    placed: &mut Vec<LabelBox>,
     options: &SeriesSvgOptions,
 ) {
-    let fill = colour(rgb, options.greyscale);
+    let fill = colour(marks.rgb, options.greyscale);
     let fs = options.font_size * 0.8;
     for (x, y, row) in points {
         let (px, py) = (panel.x_of(*x), panel.y_of(*y));
-        let shape = match marker {
+        let width = fs * 0.62 * row.formula.chars().count() as f64;
+        let (label_x, label_y) = place_label(placed, px, py, width, fs * 1.05);
+        let shape = match marks.marker {
             Marker::Circle => format!(
                 "<circle cx=\"{}\" cy=\"{}\" r=\"4.5\" fill=\"{fill}\"/>",
                 number(px),
@@ -383,8 +433,8 @@ fn markers(
             svg,
             "<g><title>{}</title>{shape}<text x=\"{}\" y=\"{}\" font-size=\"{}\" fill=\"{fill}\">{}</text></g>",
             escape_xml(&row.name),
-            number(px + 7.0),
-            number(py - 5.0),
+            number(label_x),
+            number(label_y),
             number(fs),
             formula_markup(&row.formula, fs)
         );
@@ -483,4 +533,20 @@ fn no_data(svg: &mut String, panel: &Panel, text: &str, options: &SeriesSvgOptio
         colour(INK, options.greyscale),
         escape_xml(text)
     );
+}
+
+#[cfg(test)]
+mod tests {
+    use super::place_label;
+
+    #[test]
+    fn labels_of_coincident_points_do_not_overlap() {
+        let mut placed = Vec::new();
+        let first = place_label(&mut placed, 100.0, 100.0, 40.0, 12.0);
+        let second = place_label(&mut placed, 100.0, 100.0, 40.0, 12.0);
+        assert_eq!(first, (107.0, 95.0));
+        assert_eq!(second, (107.0, 107.0), "one line lower");
+        let apart = place_label(&mut placed, 300.0, 100.0, 40.0, 12.0);
+        assert_eq!(apart, (307.0, 95.0), "a label far away keeps its place");
+    }
 }
