@@ -8,7 +8,7 @@
 //! errors in plain words), and every value is range-checked before use (`check.rs`).
 
 mod check;
-mod ron_error;
+pub(crate) mod ron_error;
 
 pub use check::{K_RANGE, MAX_SWEEPS};
 

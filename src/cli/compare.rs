@@ -92,7 +92,7 @@ pub(super) fn compare(args: &CompareArgs) -> ExitCode {
         None => markdown::to_markdown(&compared),
     };
     match &args.output {
-        Some(output) => write_output(output, text.as_bytes()),
+        Some(output) => write_output(output, text.as_bytes(), args.force),
         None => print_or_fail(&text),
     }
 }

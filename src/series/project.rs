@@ -84,17 +84,24 @@ fn one_line(text: &str) -> String {
     text.split_whitespace().collect::<Vec<_>>().join(" ")
 }
 
+/// A RON reading error as line, column and plain words (the project reader's wording).
+fn damaged(error: ron::error::SpannedError) -> SeriesFileError {
+    let (line, column, message) = crate::project::ron_error::plain(&error);
+    SeriesFileError::Damaged(format!(
+        "line {line}, column {column}: {}",
+        one_line(&message)
+    ))
+}
+
 impl SeriesProject {
     /// Parses series text: the version first, then everything, then the limits.
     pub fn from_ron(text: &str) -> Result<SeriesProject, SeriesFileError> {
         let text = text.strip_prefix('\u{feff}').unwrap_or(text);
-        let probe: VersionProbe =
-            ron::from_str(text).map_err(|e| SeriesFileError::Damaged(one_line(&e.to_string())))?;
+        let probe: VersionProbe = ron::from_str(text).map_err(damaged)?;
         if probe.version == 0 || probe.version > SERIES_VERSION {
             return Err(SeriesFileError::TooNew(probe.version));
         }
-        let series: SeriesProject =
-            ron::from_str(text).map_err(|e| SeriesFileError::Damaged(one_line(&e.to_string())))?;
+        let series: SeriesProject = ron::from_str(text).map_err(damaged)?;
         series.check()?;
         Ok(series)
     }
@@ -143,7 +150,7 @@ impl SeriesProject {
         let text = self.to_ron()?;
         write_atomically(path, text.as_bytes()).map_err(|e| SeriesFileError::Write {
             path: path.display().to_string(),
-            message: e.to_string(),
+            message: e.reason(),
         })
     }
 
