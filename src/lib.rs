@@ -14,4 +14,5 @@ pub mod orbital_map;
 pub mod project;
 pub mod report;
 pub mod scan;
+pub mod series;
 pub mod symmetry;

@@ -8,7 +8,7 @@
 //! errors in plain words), and every value is range-checked before use (`check.rs`).
 
 mod check;
-mod ron_error;
+pub(crate) mod ron_error;
 
 pub use check::{K_RANGE, MAX_SWEEPS};
 
@@ -83,6 +83,9 @@ pub struct Project {
     /// The orbital shown in the Inspector, by its label.
     #[serde(default)]
     pub selected_orbital: Option<String>,
+    /// Measured vertical ionization energies of the molecule with their source (for series).
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub ionization: Option<crate::series::measured::IonizationRecord>,
 }
 
 /// A project file that could not be read or written.
@@ -126,6 +129,7 @@ impl Project {
             titles: LadderTitles::default(),
             view: ViewOptions::default(),
             selected_orbital: None,
+            ionization: None,
         }
     }
 

@@ -78,6 +78,7 @@ fn same_presentation(before: &Project, after: &Project) -> bool {
         titles,
         view,
         selected_orbital,
+        ionization,
     } = before;
     let diptych::project::ViewOptions {
         show_energies,
@@ -87,6 +88,7 @@ fn same_presentation(before: &Project, after: &Project) -> bool {
     *version == after.version
         && *titles == after.titles
         && *selected_orbital == after.selected_orbital
+        && *ionization == after.ionization
         && *show_energies == after.view.show_energies
         && *link_threshold == after.view.link_threshold
 }

@@ -19,6 +19,8 @@ mod path_prompt;
 mod recovery;
 mod scan_job;
 mod screenshot;
+mod series_view;
+mod series_window;
 mod settings_window;
 mod state;
 mod structure_view;
@@ -50,6 +52,8 @@ pub struct DiptychApp {
     state: AppState,
     dialogs: Dialogs,
     screenshot: Option<ScreenshotTask>,
+    /// The Series window (issue 20), off until opened.
+    series: series_window::SeriesWindow,
     last_title: String,
     /// Whether the fallback font has been given to the drawing context.
     fonts_installed: bool,
@@ -65,6 +69,7 @@ impl DiptychApp {
             state: AppState::new(context, opened),
             dialogs: Dialogs::default(),
             screenshot: screenshot.map(ScreenshotTask::new),
+            series: series_window::SeriesWindow::default(),
             last_title: String::new(),
             fonts_installed: false,
         }
@@ -153,6 +158,7 @@ impl DiptychApp {
             &elements,
         );
         walsh_view::show(ui.ctx(), &mut self.state, &self.dialogs);
+        self.series.show(ui.ctx());
         export_window::show(ui.ctx(), &mut self.state, &self.dialogs);
         self.dialogs.show_prompt(ui.ctx());
         self.error_dialog(ui);
@@ -181,6 +187,13 @@ impl DiptychApp {
                 .clicked()
             {
                 self.state.walsh.open = true;
+            }
+            if ui
+                .button("Series…")
+                .on_hover_text("Compare the donor lone pairs of a series of molecules")
+                .clicked()
+            {
+                self.series.open = true;
             }
         });
         builder::show(ui, &mut self.state);
@@ -464,7 +477,7 @@ impl eframe::App for DiptychApp {
 
     fn ui(&mut self, ui: &mut egui::Ui, _frame: &mut eframe::Frame) {
         self.frame_ui(ui);
-        let analysed = self.is_analysed();
+        let analysed = self.is_analysed() && self.series.is_ready();
         if let Some(task) = &mut self.screenshot {
             task.step(ui.ctx(), analysed);
         }
@@ -472,9 +485,11 @@ impl eframe::App for DiptychApp {
 }
 
 /// Opens the main window; with `screenshot`, saves a PNG of it and closes.
+/// `series` opens a series document in the Series window.
 pub fn run(
     opened: Option<(Opened, PathBuf)>,
     screenshot: Option<ScreenshotTarget>,
+    series: Option<PathBuf>,
 ) -> Result<(), String> {
     let result_slot = screenshot
         .as_ref()
@@ -498,6 +513,7 @@ pub fn run(
         };
         let opened = opened.clone();
         let screenshot = screenshot.clone();
+        let series = series.clone();
         let slot = result_slot.clone();
         let outcome = eframe::run_native(
             "Diptych",
@@ -506,6 +522,9 @@ pub fn run(
                 let interactive = screenshot.is_none();
                 let fresh_start = opened.is_none();
                 let mut app = DiptychApp::new(creation.egui_ctx.clone(), opened, screenshot);
+                if let Some(path) = &series {
+                    app.series.open_path(&creation.egui_ctx, path);
+                }
                 if interactive {
                     // Autosave and the recovery offer belong to real sessions, not to
                     // screenshots.

@@ -1,6 +1,7 @@
 //! Command-line parsing (clap) and the subcommands of DESIGN §5.4; each subcommand that
 //! writes a file lives in its own module here.
 
+mod compare;
 mod export;
 mod map;
 mod output;
@@ -61,6 +62,9 @@ enum Command {
     Scan(scan::ScanArgs),
     /// Write the map of one orbital on a plane (contours, atoms, bonds) as an SVG file.
     Map(map::MapArgs),
+    /// Compare a series of molecules: donor lone pairs, frontier orbitals and charges, and
+    /// −ε against measured ionization energies, as CSV, Markdown, SVG plots or JSON.
+    Compare(compare::CompareArgs),
 }
 
 /// The hybrid models of DESIGN §4.4.
@@ -211,6 +215,7 @@ pub fn main() -> ExitCode {
         Some(Command::Report(args)) => report::report(&args),
         Some(Command::Scan(args)) => scan::scan(&args),
         Some(Command::Map(args)) => map::map(&args),
+        Some(Command::Compare(args)) => compare::compare(&args),
         None => open_window(cli.file, cli.screenshot, cli.force),
     }
 }
@@ -301,6 +306,16 @@ fn open_window(file: Option<PathBuf>, screenshot: Option<PathBuf>, force: bool) 
         path,
         overwrite: output::overwrite(force),
     });
+    let (file, series) = match file {
+        Some(path) if diptych::series::project::is_series_path(&path) => {
+            if let Err(error) = diptych::series::project::SeriesProject::load(&path) {
+                eprintln!("diptych: {}: {error}", path.display());
+                return ExitCode::from(2);
+            }
+            (None, Some(path))
+        }
+        other => (other, None),
+    };
     let opened = match file {
         Some(path) => match open_for_cli(&path, None) {
             Ok(opened) => Some((opened, path)),
@@ -308,7 +323,7 @@ fn open_window(file: Option<PathBuf>, screenshot: Option<PathBuf>, force: bool) 
         },
         None => None,
     };
-    match crate::app::run(opened, screenshot) {
+    match crate::app::run(opened, screenshot, series) {
         Ok(()) => ExitCode::SUCCESS,
         Err(message) => {
             eprintln!("diptych: {message}");

@@ -23,7 +23,18 @@ pub(super) fn check(project: &Project) -> Result<(), ProjectError> {
     check_texts(project)?;
     check_numbers(project)?;
     check_held_lone_pairs(project)?;
-    check_overrides(project)
+    check_overrides(project)?;
+    check_ionization(project)
+}
+
+/// The measured ionization energies (series comparison): finite, in range, with a source.
+fn check_ionization(project: &Project) -> Result<(), ProjectError> {
+    match &project.ionization {
+        Some(record) => record
+            .check()
+            .map_err(|error| ProjectError::OutOfRange(format!("ionization: {error}"))),
+        None => Ok(()),
+    }
 }
 
 /// Most lone pairs one atom can carry (an octet), so lone-pair indices are 0 to 3.

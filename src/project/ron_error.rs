@@ -8,7 +8,7 @@ use ron::error::{Error, SpannedError};
 use crate::message::{escaped, shown};
 
 /// The error as (line, column, message).
-pub(super) fn plain(error: &SpannedError) -> (usize, usize, String) {
+pub(crate) fn plain(error: &SpannedError) -> (usize, usize, String) {
     let start = error.span.start;
     (start.line, start.col, words(&error.code))
 }

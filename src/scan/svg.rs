@@ -54,7 +54,7 @@ const INK: [u8; 3] = [34, 34, 34];
 const FAINT: [u8; 3] = [150, 150, 150];
 
 /// Tick positions at 1, 2 or 5 × 10ᵏ covering [low, high] with about `count` steps.
-fn ticks(low: f64, high: f64, count: f64) -> (Vec<f64>, f64) {
+pub(crate) fn ticks(low: f64, high: f64, count: f64) -> (Vec<f64>, f64) {
     let span = (high - low).abs().max(1e-9);
     let raw = span / count;
     let power = 10f64.powf(raw.log10().floor());
@@ -68,7 +68,7 @@ fn ticks(low: f64, high: f64, count: f64) -> (Vec<f64>, f64) {
     ((start..=end).map(|k| k as f64 * step).collect(), step)
 }
 
-fn tick_text(value: f64, step: f64) -> String {
+pub(crate) fn tick_text(value: f64, step: f64) -> String {
     let decimals = if step >= 1.0 {
         0
     } else {
