@@ -53,8 +53,8 @@ pub fn degenerate_set_rotations(
         while end < energies.len() && energies[end] - energies[end - 1] < SET_WINDOW_EV {
             end += 1;
         }
-        if end - start > 1 {
-            let members: Vec<usize> = (start..end).collect();
+        let members: Vec<usize> = (start..end).collect();
+        if end - start > 1 && !carries_one_irrep(symmetry, &actions, coefficients, &sc, &members) {
             let representation = set_representation(&actions, coefficients, &sc, &members);
             if let Some(rotation) = adapting_rotation(symmetry, &representation) {
                 rotations.push(SetRotation { members, rotation });
@@ -63,6 +63,56 @@ pub fn degenerate_set_rotations(
         start = end;
     }
     rotations
+}
+
+/// Whether the set's characters, taken at one operation per class (a cheap test: C60's
+/// sets would otherwise each cost a k × k representation for all 120 operations), reduce
+/// to one irrep of the set's dimension: the common case, with nothing to rotate.
+fn carries_one_irrep(
+    symmetry: &Symmetry,
+    actions: &[super::salc::AoAction],
+    coefficients: &DMatrix<f64>,
+    sc: &DMatrix<f64>,
+    members: &[usize],
+) -> bool {
+    let table = &symmetry.table;
+    let n = coefficients.nrows();
+    let mut image = vec![0.0; n];
+    let mut characters = vec![0.0; table.classes.len()];
+    let mut seen = vec![false; table.classes.len()];
+    for (op, action) in symmetry.operations.iter().zip(actions) {
+        if op.class >= seen.len() || seen[op.class] {
+            continue;
+        }
+        seen[op.class] = true;
+        for &m in members {
+            let column: Vec<f64> = coefficients.column(m).iter().copied().collect();
+            action.apply(&column, &mut image);
+            characters[op.class] += sc
+                .column(m)
+                .iter()
+                .zip(&image)
+                .map(|(x, y)| x * y)
+                .sum::<f64>();
+        }
+    }
+    let order: f64 = table.classes.iter().map(|c| c.size as f64).sum();
+    let multiplicities: Vec<f64> = table
+        .irreps
+        .iter()
+        .map(|irrep| {
+            let overlap: f64 = (0..table.classes.len())
+                .map(|c| table.classes[c].size as f64 * irrep.characters[c] * characters[c])
+                .sum();
+            overlap / (order * f64::from(irrep.reality))
+        })
+        .collect();
+    let one = multiplicities
+        .iter()
+        .enumerate()
+        .filter(|(_, m)| m.abs() > 0.05)
+        .collect::<Vec<_>>();
+    matches!(one[..], [(g, m)] if (m - 1.0).abs() < 0.05 && table.irreps[g].dimension == members.len())
 }
 
 /// D(R) on the set, one k × k matrix per operation.
