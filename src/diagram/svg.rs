@@ -146,6 +146,48 @@ pub(crate) fn number(value: f64) -> Number {
     Number(value)
 }
 
+/// The opening of a standalone plot figure (Walsh diagrams, series plots): the XML
+/// declaration, the root element of `width` × `height` CSS pixels with its font, the
+/// document title, a white background and the title printed at (`x`, `y`).
+pub(crate) struct PlotHeader<'a> {
+    pub width: f64,
+    pub height: f64,
+    pub font_family: &'a str,
+    pub font_size: f64,
+    pub title: &'a str,
+    pub title_at: (f64, f64),
+    pub ink: &'a str,
+}
+
+pub(crate) fn write_plot_header(svg: &mut String, header: &PlotHeader<'_>) {
+    let (w, h, fs) = (header.width, header.height, header.font_size);
+    let title = escape_xml(header.title);
+    let _ = writeln!(svg, "<?xml version=\"1.0\" encoding=\"UTF-8\"?>");
+    let _ = writeln!(
+        svg,
+        "<svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" width=\"{0}\" height=\"{1}\" viewBox=\"0 0 {0} {1}\" font-family=\"{2}\" font-size=\"{3}\">",
+        number(w),
+        number(h),
+        escape_xml(header.font_family),
+        number(fs)
+    );
+    let _ = writeln!(svg, "<title>{title}</title>");
+    let _ = writeln!(
+        svg,
+        "<rect x=\"0\" y=\"0\" width=\"{}\" height=\"{}\" fill=\"#ffffff\"/>",
+        number(w),
+        number(h)
+    );
+    let _ = writeln!(
+        svg,
+        "<text x=\"{}\" y=\"{}\" fill=\"{}\" font-size=\"{}\">{title}</text>",
+        number(header.title_at.0),
+        number(header.title_at.1),
+        header.ink,
+        number(fs * 1.15)
+    );
+}
+
 pub(crate) fn colour(rgb: [u8; 3], greyscale: bool) -> String {
     let [r, g, b] = if greyscale { to_grey(rgb) } else { rgb };
     format!("#{r:02x}{g:02x}{b:02x}")

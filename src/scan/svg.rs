@@ -9,7 +9,9 @@ use std::fmt::Write;
 
 use super::{Lambda, Scan};
 use crate::diagram::style::{format_energy, level_rgb};
-use crate::diagram::svg::{colour, escape_xml, label_markup, number};
+use crate::diagram::svg::{
+    PlotHeader, colour, escape_xml, label_markup, number, write_plot_header,
+};
 
 /// Export choices.
 #[derive(Clone, Debug, PartialEq)]
@@ -139,33 +141,21 @@ pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
     let curve_colour = |label: &str| colour(level_rgb(label).unwrap_or(INK), options.greyscale);
 
     let mut svg = String::new();
-    let _ = writeln!(svg, "<?xml version=\"1.0\" encoding=\"UTF-8\"?>");
-    let _ = writeln!(
-        svg,
-        "<svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" width=\"{0}\" height=\"{1}\" viewBox=\"0 0 {0} {1}\" font-family=\"{2}\" font-size=\"{3}\">",
-        number(w),
-        number(h),
-        escape_xml(&options.font_family),
-        number(fs)
-    );
     let title = options
         .title
         .clone()
         .unwrap_or_else(|| format!("Walsh diagram: {}", scan.request.coordinate.describe()));
-    let _ = writeln!(svg, "<title>{}</title>", escape_xml(&title));
-    let _ = writeln!(
-        svg,
-        "<rect x=\"0\" y=\"0\" width=\"{}\" height=\"{}\" fill=\"#ffffff\"/>",
-        number(w),
-        number(h)
-    );
-    let _ = writeln!(
-        svg,
-        "<text x=\"{}\" y=\"{}\" fill=\"{ink}\" font-size=\"{}\">{}</text>",
-        number(left),
-        number(top - 20.0),
-        number(fs * 1.15),
-        escape_xml(&title)
+    write_plot_header(
+        &mut svg,
+        &PlotHeader {
+            width: w,
+            height: h,
+            font_family: &options.font_family,
+            font_size: fs,
+            title: &title,
+            title_at: (left, top - 20.0),
+            ink: &ink,
+        },
     );
     let _ = writeln!(
         svg,

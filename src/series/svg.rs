@@ -11,7 +11,7 @@ use std::fmt::Write;
 use super::fit::{LineFit, paired};
 use super::table::fixed;
 use super::{Series, SeriesRow};
-use crate::diagram::svg::{colour, escape_xml, number};
+use crate::diagram::svg::{PlotHeader, colour, escape_xml, number, write_plot_header};
 use crate::scan::svg::{tick_text, ticks};
 
 /// Export choices.
@@ -122,29 +122,17 @@ pub fn series_svg(series: &Series, options: &SeriesSvgOptions) -> String {
             series.rows.len()
         )
     });
-    let _ = writeln!(svg, "<?xml version=\"1.0\" encoding=\"UTF-8\"?>");
-    let _ = writeln!(
-        svg,
-        "<svg xmlns=\"http://www.w3.org/2000/svg\" version=\"1.1\" width=\"{0}\" height=\"{1}\" viewBox=\"0 0 {0} {1}\" font-family=\"{2}\" font-size=\"{3}\">",
-        number(w),
-        number(h),
-        escape_xml(&options.font_family),
-        number(fs)
-    );
-    let _ = writeln!(svg, "<title>{}</title>", escape_xml(&title));
-    let _ = writeln!(
-        svg,
-        "<rect x=\"0\" y=\"0\" width=\"{}\" height=\"{}\" fill=\"#ffffff\"/>",
-        number(w),
-        number(h)
-    );
-    let _ = writeln!(
-        svg,
-        "<text x=\"{}\" y=\"{}\" fill=\"{ink}\" font-size=\"{}\">{}</text>",
-        number(70.0),
-        number(30.0),
-        number(fs * 1.15),
-        escape_xml(&title)
+    write_plot_header(
+        &mut svg,
+        &PlotHeader {
+            width: w,
+            height: h,
+            font_family: &options.font_family,
+            font_size: fs,
+            title: &title,
+            title_at: (70.0, 30.0),
+            ink: &ink,
+        },
     );
     let half = w / 2.0;
     let (top, bottom) = (60.0, h - 120.0);
