@@ -4,17 +4,12 @@
 //! and nothing written.
 
 use std::path::{Path, PathBuf};
-use std::process::{Command, Output};
+use std::process::Output;
 
 use diptych::diagram::png::RasterImage;
 
-fn diptych(args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_diptych"))
-        .args(args)
-        .current_dir(env!("CARGO_MANIFEST_DIR"))
-        .output()
-        .expect("diptych runs")
-}
+mod cli_support;
+use cli_support::diptych;
 
 fn path_arg(path: &Path) -> String {
     path.to_string_lossy().into_owned()

@@ -5,27 +5,11 @@
 //! this file runs refusals only, so that peak belongs to refused inputs.
 
 use std::path::{Path, PathBuf};
-use std::process::{Command, Output};
+
+mod cli_support;
+use cli_support::{assert_refused, diptych};
 
 type TestResult = Result<(), Box<dyn std::error::Error>>;
-
-fn diptych(args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_diptych"))
-        .args(args)
-        .current_dir(env!("CARGO_MANIFEST_DIR"))
-        .output()
-        .expect("diptych runs")
-}
-
-fn assert_refused(output: &Output, message: &str) {
-    let stderr = String::from_utf8_lossy(&output.stderr);
-    assert_eq!(output.status.code(), Some(2), "{stderr}");
-    assert!(
-        stderr.contains(message),
-        "expected '{message}' in '{stderr}'"
-    );
-    assert_eq!(stderr.trim().lines().count(), 1, "one line: {stderr}");
-}
 
 fn demo_project() -> String {
     let path = Path::new(env!("CARGO_MANIFEST_DIR")).join("demo_molecules/ammonia.diptych.ron");

@@ -5,24 +5,18 @@
 //! file. Inputs are in `tests/meaning_inputs/`.
 
 use std::path::{Path, PathBuf};
-use std::process::{Command, Output};
 
 use diptych::chem::io::read_molecule_file;
 use diptych::chem::{Atom, Element, Molecule};
 use diptych::project::Project;
 
+mod cli_support;
+use cli_support::diptych;
+
 fn input(name: &str) -> PathBuf {
     Path::new(env!("CARGO_MANIFEST_DIR"))
         .join("tests/meaning_inputs")
         .join(name)
-}
-
-fn diptych(args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_diptych"))
-        .args(args)
-        .current_dir(env!("CARGO_MANIFEST_DIR"))
-        .output()
-        .expect("diptych runs")
 }
 
 #[test]

@@ -3,25 +3,8 @@
 //! range, a scan of two atoms that are not bonded says so, and negative numbers reach our
 //! own range checks instead of the argument parser's "use '-- -1'" hint.
 
-use std::process::{Command, Output};
-
-fn diptych(args: &[&str]) -> Output {
-    Command::new(env!("CARGO_BIN_EXE_diptych"))
-        .args(args)
-        .current_dir(env!("CARGO_MANIFEST_DIR"))
-        .output()
-        .expect("diptych runs")
-}
-
-fn assert_refused(output: &Output, message: &str) {
-    let stderr = String::from_utf8_lossy(&output.stderr);
-    assert_eq!(output.status.code(), Some(2), "{stderr}");
-    assert!(
-        stderr.contains(message),
-        "expected '{message}' in '{stderr}'"
-    );
-    assert_eq!(stderr.trim().lines().count(), 1, "one line: {stderr}");
-}
+mod cli_support;
+use cli_support::{assert_refused, diptych};
 
 #[test]
 fn a_byte_order_mark_is_skipped() {

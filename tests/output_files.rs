@@ -7,6 +7,9 @@
 use std::path::Path;
 use std::process::{Command, Output};
 
+mod cli_support;
+use cli_support::assert_refused;
+
 type TestResult = Result<(), Box<dyn std::error::Error>>;
 
 fn diptych(args: &[&str]) -> Output {
@@ -21,16 +24,6 @@ fn diptych(args: &[&str]) -> Output {
 
 fn text(path: &Path) -> String {
     path.to_string_lossy().into_owned()
-}
-
-fn assert_refused(output: &Output, message: &str) {
-    let stderr = String::from_utf8_lossy(&output.stderr);
-    assert_eq!(output.status.code(), Some(2), "{stderr}");
-    assert!(
-        stderr.contains(message),
-        "expected '{message}' in '{stderr}'"
-    );
-    assert_eq!(stderr.trim().lines().count(), 1, "one line: {stderr}");
 }
 
 /// Every file-writing command line, writing to `out`.
