@@ -102,6 +102,7 @@ fn json_has_stable_field_names() {
     for key in [
         "name",
         "formula",
+        "label",
         "point_group",
         "electrons",
         "homo",

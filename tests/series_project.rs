@@ -45,6 +45,7 @@ fn a_series_with_embedded_molecules_round_trips_and_its_choices_are_used() {
                 source: MemberSource::Embedded(water.clone()),
                 settings: None,
                 donor: DonorChoice::RichestInS(0),
+                label: Some("water (gas)".into()),
                 ionization: Some(IonizationRecord {
                     vertical_ev: vec![14.7, 12.6],
                     source: "our own measurement".into(),
@@ -54,6 +55,7 @@ fn a_series_with_embedded_molecules_round_trips_and_its_choices_are_used() {
                 source: MemberSource::File("ammonia.xyz".into()),
                 settings: None,
                 donor: DonorChoice::Auto,
+                label: None,
                 ionization: None,
             },
         ],
@@ -81,6 +83,9 @@ fn a_series_with_embedded_molecules_round_trips_and_its_choices_are_used() {
     let donor = water_row.donor.as_ref().expect("donor");
     assert!(donor.s_percent.unwrap_or(0.0) > 20.0);
     assert_eq!(compared.rows[1].formula, "H3N");
+    // The member's label names the row; without one, the formula as chemists write it.
+    assert_eq!(water_row.label, "water (gas)");
+    assert_eq!(compared.rows[1].label, "NH3");
 }
 
 #[test]
@@ -122,6 +127,13 @@ fn bad_series_documents_are_refused() {
             "(version: 1, members: [(source: File(\"a.xyz\"), ionization: Some((vertical_ev: [1e9], source: \"x\")))])"
                 .to_string(),
             "between 0 and",
+        ),
+        (
+            format!(
+                "(version: 1, members: [(source: File(\"a.xyz\"), label: Some(\"{}\"))])",
+                "x".repeat(41)
+            ),
+            "longer than 40",
         ),
     ];
     for (text, expected) in &cases {

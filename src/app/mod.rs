@@ -32,6 +32,8 @@ mod walsh_view;
 mod worker;
 
 #[cfg(test)]
+mod series_tests;
+#[cfg(test)]
 mod tests;
 #[cfg(test)]
 mod window_tests;

@@ -4,26 +4,45 @@
 //! %s, and −ε(HOMO) and −ε(lone pair) against the measured ionization energy with the
 //! least-squares lines and their slope, offset and r².
 
+use diptych::chem::formula::subscript_runs;
+use diptych::series::choice::{describe, donor_options};
 use diptych::series::table::{HEADINGS, cells};
-use diptych::series::{LineFit, Series, SeriesRow};
+use diptych::series::{DonorChoice, LineFit, Series, SeriesRow};
 use eframe::egui;
 use egui_plot::{Legend, Line, Plot, PlotPoints, Points, Text};
 
-/// The table's columns (indices into `COLUMNS`): the source and notes are hover texts.
-const SHOWN: [usize; 17] = [0, 2, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14, 15, 16, 17];
-const SOURCE: usize = 18;
-const NOTES: usize = 19;
+/// The table's columns (indices into `COLUMNS`): the label first; the Hill formula is
+/// left out (the label is the formula as chemists write it); the source and notes are
+/// hover texts.
+const SHOWN: [usize; 18] = [
+    1, 0, 3, 4, 5, 6, 7, 8, 9, 10, 11, 12, 13, 14, 15, 16, 17, 18,
+];
+const LABEL: usize = 1;
+const DONOR_ATOM: usize = 7;
+const MEASURED: usize = 18;
+const SOURCE: usize = 19;
+const NOTES: usize = 20;
 
 const HOMO_COLOUR: egui::Color32 = egui::Color32::from_rgb(40, 90, 170);
 const LONE_PAIR_COLOUR: egui::Color32 = egui::Color32::from_rgb(196, 100, 20);
 
-/// Table and plots; `sort` is (column, ascending).
-pub fn show(ui: &mut egui::Ui, series: &Series, sort: &mut Option<(usize, bool)>) {
+/// A donor chosen in the table: the row (= member) and its new choice.
+pub type DonorChange = (usize, DonorChoice);
+
+/// Table and plots; `sort` is (column, ascending); `choices` are the members' donor
+/// choices (a menu per row when given). Returns the donor the user picked, if any.
+pub fn show(
+    ui: &mut egui::Ui,
+    series: &Series,
+    sort: &mut Option<(usize, bool)>,
+    choices: Option<&[DonorChoice]>,
+) -> Option<DonorChange> {
     let table_height = (ui.available_height() * 0.45).max(160.0);
-    egui::ScrollArea::both()
+    let change = egui::ScrollArea::both()
         .id_salt("series table")
         .max_height(table_height)
-        .show(ui, |ui| table(ui, series, sort));
+        .show(ui, |ui| table(ui, series, sort, choices))
+        .inner;
     ui.separator();
     fit_summary(ui, series);
     let height = ui.available_height().max(200.0);
@@ -31,6 +50,7 @@ pub fn show(ui: &mut egui::Ui, series: &Series, sort: &mut Option<(usize, bool)>
         energy_against_s(&mut columns[0], series, height);
         koopmans(&mut columns[1], series, height);
     });
+    change
 }
 
 /// Row order for a sort column: numbers compare as numbers, empty cells go last.
@@ -55,8 +75,14 @@ pub fn sorted_order(rows: &[Vec<String>], sort: Option<(usize, bool)>) -> Vec<us
     order
 }
 
-fn table(ui: &mut egui::Ui, series: &Series, sort: &mut Option<(usize, bool)>) {
+fn table(
+    ui: &mut egui::Ui,
+    series: &Series,
+    sort: &mut Option<(usize, bool)>,
+    choices: Option<&[DonorChoice]>,
+) -> Option<DonorChange> {
     let rows: Vec<Vec<String>> = series.rows.iter().map(cells).collect();
+    let mut change = None;
     egui::Grid::new("series grid")
         .striped(true)
         .spacing([14.0, 4.0])
@@ -83,16 +109,77 @@ fn table(ui: &mut egui::Ui, series: &Series, sort: &mut Option<(usize, bool)>) {
             for index in sorted_order(&rows, *sort) {
                 let row = &rows[index];
                 for &column in &SHOWN {
-                    let response = ui.label(&row[column]);
-                    if column == 0 && !row[NOTES].is_empty() {
+                    let choice = choices.and_then(|c| c.get(index));
+                    if let (DONOR_ATOM, Some(choice)) = (column, choice) {
+                        let picked = donor_menu(ui, index, &series.rows[index], choice);
+                        if change.is_none() {
+                            change = picked.map(|c| (index, c));
+                        }
+                        continue;
+                    }
+                    let response = ui.label(subscript_digits(&row[column], column == LABEL));
+                    if column == LABEL && !row[NOTES].is_empty() {
                         response.on_hover_text(&row[NOTES]);
-                    } else if column == 17 && !row[SOURCE].is_empty() {
+                    } else if column == MEASURED && !row[SOURCE].is_empty() {
                         response.on_hover_text(&row[SOURCE]);
                     }
                 }
                 ui.end_row();
             }
         });
+    change
+}
+
+/// The donor cell: the donor atom, with a menu of the row's other choices.
+fn donor_menu(
+    ui: &mut egui::Ui,
+    index: usize,
+    row: &SeriesRow,
+    current: &DonorChoice,
+) -> Option<DonorChoice> {
+    let shown = row.donor.as_ref().map_or_else(
+        || "none".to_string(),
+        |d| format!("{}{}", d.element, d.atom),
+    );
+    let mut picked = None;
+    let response = egui::ComboBox::from_id_salt(("donor choice", index))
+        .selected_text(&shown)
+        .show_ui(ui, |ui| {
+            for option in donor_options(row) {
+                let selected = option == *current;
+                if ui
+                    .selectable_label(selected, describe(&option, row))
+                    .clicked()
+                    && !selected
+                {
+                    picked = Some(option);
+                }
+            }
+        })
+        .response;
+    // Named by its molecule for screen readers (and the tests).
+    let name = format!("Donor of {}: {shown}", row.label);
+    response.widget_info(|| egui::WidgetInfo::labeled(egui::Role::ComboBox, true, &name));
+    response.on_hover_text(format!("Donor: {}", describe(current, row)));
+    picked
+}
+
+/// A label's formula digits as Unicode subscripts ("NH3" → "NH₃"); other text as given.
+fn subscript_digits(text: &str, formula: bool) -> String {
+    if !formula {
+        return text.to_string();
+    }
+    subscript_runs(text)
+        .into_iter()
+        .flat_map(|(run, subscript)| {
+            run.chars()
+                .map(move |c| match (subscript, c.to_digit(10)) {
+                    (true, Some(d)) => char::from_u32(0x2080 + d).unwrap_or(c),
+                    _ => c,
+                })
+                .collect::<Vec<char>>()
+        })
+        .collect()
 }
 
 fn fit_text(what: &str, fit: Option<&LineFit>) -> String {
@@ -138,7 +225,9 @@ fn labelled(
             Text::new(
                 "",
                 (*p).into(),
-                egui::RichText::new(&row.formula).color(colour).size(12.0),
+                egui::RichText::new(subscript_digits(&row.label, true))
+                    .color(colour)
+                    .size(12.0),
             )
             .anchor(egui::Align2::LEFT_BOTTOM),
         );

@@ -7,7 +7,7 @@ use std::path::{Path, PathBuf};
 use std::sync::mpsc::{Receiver, Sender, TryRecvError, channel};
 
 use diptych::series::project::{SERIES_EXTENSION, SeriesProject};
-use diptych::series::{self, Series};
+use diptych::series::{self, DonorChoice, Series};
 use eframe::egui;
 
 use super::series_view;
@@ -21,7 +21,9 @@ enum Picked {
 /// The window's state; off until a series is opened or the button is pressed.
 pub struct SeriesWindow {
     pub open: bool,
-    document: Option<(PathBuf, SeriesProject)>,
+    pub(super) document: Option<(PathBuf, SeriesProject)>,
+    /// The document differs from its file (a donor was chosen in the table).
+    modified: bool,
     job: Option<Receiver<Result<Series, String>>>,
     pub(super) series: Option<Series>,
     pub(super) sort: Option<(usize, bool)>,
@@ -36,6 +38,7 @@ impl Default for SeriesWindow {
         SeriesWindow {
             open: false,
             document: None,
+            modified: false,
             job: None,
             series: None,
             sort: None,
@@ -60,6 +63,7 @@ impl SeriesWindow {
                 let folder = path.parent().map(Path::to_path_buf).unwrap_or_default();
                 self.start(context, &document, folder);
                 self.document = Some((path.to_path_buf(), document));
+                self.modified = false;
             }
             Err(error) => self.message = Some(format!("{}: {error}", path.display())),
         }
@@ -116,12 +120,36 @@ impl SeriesWindow {
         }
     }
 
+    /// A donor chosen in the table: the document changes and the series is analysed
+    /// again; the table on screen stays until the new one arrives.
+    pub(super) fn choose_donor(
+        &mut self,
+        context: &egui::Context,
+        member: usize,
+        choice: DonorChoice,
+    ) {
+        let Some((path, document)) = &mut self.document else {
+            return;
+        };
+        let Some(entry) = document.members.get_mut(member) else {
+            return;
+        };
+        entry.donor = choice;
+        self.modified = true;
+        let folder = path.parent().map(Path::to_path_buf).unwrap_or_default();
+        let document = document.clone();
+        self.start(context, &document, folder);
+    }
+
     fn save(&mut self, path: &Path) {
         let Some((_, document)) = &self.document else {
             return;
         };
         self.message = Some(match document.save(path) {
-            Ok(()) => format!("saved {}", path.display()),
+            Ok(()) => {
+                self.modified = false;
+                format!("saved {}", path.display())
+            }
             Err(error) => error.to_string(),
         });
     }
@@ -180,7 +208,11 @@ impl SeriesWindow {
                 } else {
                     document.title.clone()
                 };
-                ui.label(title);
+                ui.label(if self.modified {
+                    format!("{title} (changed, not saved)")
+                } else {
+                    title
+                });
             }
             if self.job.is_some() {
                 ui.spinner();
@@ -191,8 +223,16 @@ impl SeriesWindow {
         }
         if let Some(series) = &self.series {
             let mut sort = self.sort;
-            series_view::show(ui, series, &mut sort);
+            let choices: Option<Vec<DonorChoice>> = self
+                .document
+                .as_ref()
+                .filter(|(_, d)| d.members.len() == series.rows.len())
+                .map(|(_, d)| d.members.iter().map(|m| m.donor.clone()).collect());
+            let change = series_view::show(ui, series, &mut sort, choices.as_deref());
             self.sort = sort;
+            if let Some((member, choice)) = change {
+                self.choose_donor(ui.ctx(), member, choice);
+            }
         } else if self.document.is_none() {
             ui.label("Open a series document (*.diptych-series.ron) to compare its molecules.");
         }

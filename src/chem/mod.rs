@@ -3,6 +3,7 @@
 pub mod ao;
 mod edit;
 pub mod element;
+pub mod formula;
 pub mod io;
 pub mod molecule;
 pub mod templates;

@@ -371,41 +371,19 @@ impl Molecule {
         Ok(())
     }
 
-    /// Formula in Hill order: C first, then H, then the rest alphabetically; without
-    /// carbon, all alphabetically. A charge is appended as "+", "2−" style text.
+    /// Formula in Hill order with the charge ("H3N", "CH3Cl"): see [`super::formula::hill`].
     pub fn formula(&self) -> String {
-        use std::collections::BTreeMap;
-        let mut counts: BTreeMap<&str, usize> = BTreeMap::new();
-        for atom in &self.atoms {
-            *counts.entry(atom.element.symbol()).or_default() += 1;
-        }
-        let mut order: Vec<&str> = Vec::new();
-        if counts.contains_key("C") {
-            order.push("C");
-            if counts.contains_key("H") {
-                order.push("H");
-            }
-        }
-        for symbol in counts.keys() {
-            if !order.contains(symbol) {
-                order.push(symbol);
-            }
-        }
-        let mut text = String::new();
-        for symbol in order {
-            text.push_str(symbol);
-            if counts[symbol] > 1 {
-                text.push_str(&counts[symbol].to_string());
-            }
-        }
-        match self.charge {
-            0 => {}
-            1 => text.push('+'),
-            -1 => text.push('−'),
-            c if c > 0 => text.push_str(&format!("{c}+")),
-            c => text.push_str(&format!("{}−", -c)),
-        }
-        text
+        super::formula::hill(&self.elements(), self.charge)
+    }
+
+    /// The formula as chemists write it ("NH3", "H2O"): see
+    /// [`super::formula::conventional`].
+    pub fn conventional_formula(&self) -> String {
+        super::formula::conventional(&self.elements(), self.charge)
+    }
+
+    fn elements(&self) -> Vec<Element> {
+        self.atoms.iter().map(|a| a.element).collect()
     }
 
     pub fn total_mass(&self) -> f64 {

@@ -10,6 +10,7 @@
 //! the series (`csv.rs`, `markdown.rs`, `svg.rs`, JSON through serde). Series files are in
 //! `project.rs`.
 
+pub mod choice;
 pub mod csv;
 pub mod fit;
 pub mod markdown;
@@ -61,6 +62,9 @@ pub struct SeriesInput {
     pub molecule: Molecule,
     pub settings: Settings,
     pub donor: DonorChoice,
+    /// How the molecule is named in the table and on the plots; `None`: its formula as
+    /// chemists write it (`Molecule::conventional_formula`).
+    pub label: Option<String>,
     /// The molecule's own measured value (a project field); when `None` the bundled table
     /// is consulted.
     pub measured: Option<MeasuredIonization>,
@@ -114,7 +118,11 @@ pub fn row_of(analysis: &Analysis, input: &SeriesInput) -> SeriesRow {
         .measured
         .clone()
         .or_else(|| bundled_ionization(&analysis.molecule));
-    row::read_row(analysis, &input.donor, measured)
+    let mut row = row::read_row(analysis, &input.donor, measured);
+    if let Some(label) = input.label.as_ref().filter(|l| !l.trim().is_empty()) {
+        row.label = label.trim().to_string();
+    }
+    row
 }
 
 /// The series of finished rows, with its fits.

@@ -21,6 +21,8 @@ pub const SERIES_VERSION: u32 = 1;
 pub const SERIES_EXTENSION: &str = ".diptych-series.ron";
 /// Longest title (characters).
 pub const MAX_TITLE_CHARS: usize = 200;
+/// Longest member label (characters): it is drawn beside a plot point.
+pub const MAX_LABEL_CHARS: usize = 40;
 
 /// Where a member's molecule comes from.
 #[derive(Clone, Debug, PartialEq, Serialize, Deserialize)]
@@ -42,6 +44,10 @@ pub struct SeriesMember {
     pub settings: Option<Settings>,
     #[serde(default)]
     pub donor: DonorChoice,
+    /// Name on the table and plots (at most [`MAX_LABEL_CHARS`] characters); `None`: the
+    /// formula as chemists write it.
+    #[serde(default, skip_serializing_if = "Option::is_none")]
+    pub label: Option<String>,
     /// Measured vertical ionization energies; `None`: the project's own, else the bundled
     /// table.
     #[serde(default, skip_serializing_if = "Option::is_none")]
@@ -121,6 +127,13 @@ impl SeriesProject {
             if let MemberSource::Embedded(molecule) = &member.source {
                 molecule.validate().map_err(|e| fail(e.to_string()))?;
             }
+            if let Some(label) = &member.label
+                && label.chars().count() > MAX_LABEL_CHARS
+            {
+                return Err(fail(format!(
+                    "the label is longer than {MAX_LABEL_CHARS} characters"
+                )));
+            }
             if let Some(record) = &member.ionization {
                 record.check().map_err(|e| fail(e.to_string()))?;
             }
@@ -188,6 +201,7 @@ fn member_input(member: &SeriesMember, folder: &Path) -> Result<SeriesInput, Str
         molecule,
         settings: member.settings.clone().unwrap_or(settings),
         donor: member.donor.clone(),
+        label: member.label.clone(),
         measured: record.as_ref().and_then(IonizationRecord::first),
     })
 }
@@ -209,6 +223,7 @@ pub fn of_files(title: &str, files: &[PathBuf]) -> SeriesProject {
                 source: MemberSource::File(file.clone()),
                 settings: None,
                 donor: DonorChoice::Auto,
+                label: None,
                 ionization: None,
             })
             .collect(),

@@ -55,7 +55,11 @@ pub struct DonorLonePair {
 #[derive(Clone, Debug, PartialEq, Serialize)]
 pub struct SeriesRow {
     pub name: String,
+    /// Hill formula ("H3N"), as in the reports.
     pub formula: String,
+    /// The name on the plots: the member's label, else the formula as chemists write it
+    /// ("NH3").
+    pub label: String,
     /// Schoenflies symbol, unless the symmetry stage failed.
     pub point_group: Option<String>,
     pub electrons: usize,
@@ -99,6 +103,7 @@ pub fn read_row(
     SeriesRow {
         name: analysis.molecule.name.clone(),
         formula: analysis.formula.clone(),
+        label: analysis.molecule.conventional_formula(),
         point_group: analysis.symmetry.as_ref().map(|s| s.group.to_string()),
         electrons: analysis.electrons,
         homo,

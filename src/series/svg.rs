@@ -11,6 +11,7 @@ use std::fmt::Write;
 use super::fit::{LineFit, paired};
 use super::table::fixed;
 use super::{Series, SeriesRow};
+use crate::chem::formula::subscript_runs;
 use crate::diagram::svg::{PlotHeader, colour, escape_xml, number, write_plot_header};
 use crate::scan::svg::{tick_text, ticks};
 
@@ -76,18 +77,14 @@ fn padded(values: impl Iterator<Item = f64>) -> (f64, f64) {
     (low - 0.08 * span, high + 0.08 * span)
 }
 
-/// A formula with its digits as subscripts ("NH3" → NH₃), each shift undone after its run.
-fn formula_markup(formula: &str, font_size: f64) -> String {
+/// A label with its formula digits as subscripts ("NH3" → NH₃, see
+/// `chem::formula::subscript_runs`), each shift undone after its run.
+fn formula_markup(label: &str, font_size: f64) -> String {
     let shift = font_size * 0.25;
     let mut out = String::new();
-    let mut run = String::new();
-    let mut digits = false;
-    let flush = |out: &mut String, run: &mut String, digits: bool| {
-        if run.is_empty() {
-            return;
-        }
-        let text = escape_xml(run);
-        if digits {
+    for (run, subscript) in subscript_runs(label) {
+        let text = escape_xml(&run);
+        if subscript {
             let _ = write!(
                 out,
                 "<tspan dy=\"{}\" font-size=\"{}\">{text}</tspan><tspan dy=\"{}\"></tspan>",
@@ -98,16 +95,7 @@ fn formula_markup(formula: &str, font_size: f64) -> String {
         } else {
             let _ = write!(out, "<tspan>{text}</tspan>");
         }
-        run.clear();
-    };
-    for c in formula.chars() {
-        if c.is_ascii_digit() != digits {
-            flush(&mut out, &mut run, digits);
-            digits = c.is_ascii_digit();
-        }
-        run.push(c);
     }
-    flush(&mut out, &mut run, digits);
     out
 }
 
@@ -397,7 +385,7 @@ fn markers(
     let fs = options.font_size * 0.8;
     for (x, y, row) in points {
         let (px, py) = (panel.x_of(*x), panel.y_of(*y));
-        let width = fs * 0.62 * row.formula.chars().count() as f64;
+        let width = fs * 0.62 * row.label.chars().count() as f64;
         let (label_x, label_y) = place_label(placed, px, py, width, fs * 1.05);
         let shape = match marks.marker {
             Marker::Circle => format!(
@@ -424,7 +412,7 @@ fn markers(
             number(label_x),
             number(label_y),
             number(fs),
-            formula_markup(&row.formula, fs)
+            formula_markup(&row.label, fs)
         );
     }
 }

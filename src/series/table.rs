@@ -6,8 +6,9 @@ use super::Series;
 use super::row::{DonorLonePair, SeriesRow};
 
 /// Machine names of the columns (the CSV header), in order.
-pub const COLUMNS: [&str; 20] = [
+pub const COLUMNS: [&str; 21] = [
     "name",
+    "label",
     "formula",
     "point_group",
     "electrons",
@@ -30,8 +31,9 @@ pub const COLUMNS: [&str; 20] = [
 ];
 
 /// Column headings for people (Markdown, the window), in the order of [`COLUMNS`].
-pub const HEADINGS: [&str; 20] = [
+pub const HEADINGS: [&str; 21] = [
     "molecule",
+    "label",
     "formula",
     "group",
     "electrons",
@@ -83,6 +85,7 @@ pub fn cells(row: &SeriesRow) -> Vec<String> {
     };
     vec![
         row.name.clone(),
+        row.label.clone(),
         row.formula.clone(),
         row.point_group.clone().unwrap_or_default(),
         row.electrons.to_string(),

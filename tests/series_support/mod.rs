@@ -43,6 +43,7 @@ pub fn input_from(path: PathBuf, donor: DonorChoice) -> SeriesInput {
         molecule: opened.project.molecule,
         settings: Settings::default(),
         donor,
+        label: None,
         measured: None,
     }
 }
