@@ -110,7 +110,8 @@ fn table(
                 let row = &rows[index];
                 for &column in &SHOWN {
                     let choice = choices.and_then(|c| c.get(index));
-                    if let (DONOR_ATOM, Some(choice)) = (column, choice) {
+                    let has_lone_pairs = !series.rows[index].lone_pairs.is_empty();
+                    if let (DONOR_ATOM, Some(choice), true) = (column, choice, has_lone_pairs) {
                         let picked = donor_menu(ui, index, &series.rows[index], choice);
                         if change.is_none() {
                             change = picked.map(|c| (index, c));
