@@ -5,6 +5,7 @@
 
 use std::sync::Arc;
 
+use diptych::scan::palette::{curve_rgb, irrep_colours};
 use diptych::scan::{Curve, Lambda, Scan};
 
 /// The top of the λ plot; pure p orbitals (λ = ∞) are marked there.
@@ -12,8 +13,8 @@ pub const LAMBDA_TOP: f64 = 8.0;
 
 /// One followed level, ready to draw.
 pub struct CurvePlot {
-    /// Name for the colour (the level's label at the reference point).
-    pub label: String,
+    /// Its irrep's colour in this scan (`scan::palette`, as in the SVG); `None`: ink.
+    pub rgb: Option<[u8; 3]>,
     /// Legend entry: the irrep, so that one entry stands for all its levels.
     pub legend: String,
     pub segments: Vec<Vec<[f64; 2]>>,
@@ -28,6 +29,8 @@ pub struct LambdaPlot {
     pub segments: Vec<Vec<[f64; 2]>>,
     /// Points where the hybrid is a pure p orbital, placed at `LAMBDA_TOP`.
     pub pure_p: Vec<[f64; 2]>,
+    /// Points where the model has no value (Coulson's relations unsolvable), at λ = 0.
+    pub unsolved: Vec<[f64; 2]>,
 }
 
 pub struct WalshPlot {
@@ -44,11 +47,12 @@ pub struct WalshPlot {
 
 impl WalshPlot {
     pub fn new(scan: Arc<Scan>) -> WalshPlot {
+        let palette = irrep_colours(&scan);
         let curves = scan
             .curves
             .iter()
             .map(|curve| CurvePlot {
-                label: curve.label.clone(),
+                rgb: curve_rgb(&palette, curve),
                 legend: curve.irrep.clone().unwrap_or_else(|| curve.label.clone()),
                 segments: segments(&scan, &curve.energies),
                 end: scan
@@ -120,16 +124,19 @@ fn lambda_plots(scan: &Scan, model: &str) -> Vec<LambdaPlot> {
                     _ => None,
                 })
                 .collect();
-            let pure_p = values
-                .iter()
-                .zip(&scan.points)
-                .filter(|(value, _)| matches!(value, Some(Lambda::PureP)))
-                .map(|(_, point)| [point.value, LAMBDA_TOP])
-                .collect();
+            let at = |kind: Lambda, y: f64| -> Vec<[f64; 2]> {
+                values
+                    .iter()
+                    .zip(&scan.points)
+                    .filter(|(value, _)| **value == Some(kind))
+                    .map(|(_, point)| [point.value, y])
+                    .collect()
+            };
             LambdaPlot {
                 name,
                 segments: segments(scan, &finite),
-                pure_p,
+                pure_p: at(Lambda::PureP, LAMBDA_TOP),
+                unsolved: at(Lambda::NoSolution, 0.0),
             }
         })
         .collect()

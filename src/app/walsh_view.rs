@@ -15,7 +15,6 @@ use egui_plot::{Legend, Line, Plot, PlotPoints, Points, Text, VLine};
 use super::menus::Dialogs;
 use super::scan_job::ScanJob;
 use super::state::AppState;
-use super::theme::level_colour;
 use super::walsh_plot::{LAMBDA_TOP, WalshPlot};
 
 /// The coordinates offered in the window (the library's `Coordinate` without atoms).
@@ -350,7 +349,9 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
         .allow_scroll(false)
         .show(ui, |plot| {
             for curve in &data.curves {
-                let colour = level_colour(&curve.label, ink);
+                let colour = curve
+                    .rgb
+                    .map_or(ink, |[r, g, b]| egui::Color32::from_rgb(r, g, b));
                 for segment in &curve.segments {
                     plot.line(
                         Line::new(curve.legend.clone(), PlotPoints::from(segment.clone()))
@@ -418,6 +419,16 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
                             PlotPoints::from(group.pure_p.clone()),
                         )
                         .radius(4.0),
+                    );
+                }
+                if !group.unsolved.is_empty() {
+                    plot.points(
+                        Points::new(
+                            format!("{} × no solution", group.name),
+                            PlotPoints::from(group.unsolved.clone()),
+                        )
+                        .shape(egui_plot::MarkerShape::Cross)
+                        .radius(5.0),
                     );
                 }
             }

@@ -15,6 +15,7 @@ pub mod coordinate;
 pub mod csv;
 pub mod engine;
 pub mod follow;
+pub mod palette;
 pub mod point;
 pub mod svg;
 mod symmetric;

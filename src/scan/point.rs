@@ -11,11 +11,15 @@ use crate::analysis::{Analysis, Settings};
 use crate::chem::molecule::Molecule;
 use crate::hybrid::{HybridKind, HybridModel};
 
-/// A hybridization index: finite λ of sp^λ, or a pure p orbital (λ → ∞).
+/// A hybridization index: finite λ of sp^λ, a pure p orbital (λ → ∞), or none: the
+/// model has no hybrids of its own at this point (Coulson's relations have no solution
+/// for bonds at 90° or less; the analysis put another model's hybrids in its place, which
+/// a scan must not draw as the same curve).
 #[derive(Clone, Copy, Debug, PartialEq, Serialize, Deserialize)]
 pub enum Lambda {
     Finite(f64),
     PureP,
+    NoSolution,
 }
 
 impl Lambda {
@@ -31,6 +35,7 @@ impl Lambda {
         match self {
             Lambda::Finite(value) => value,
             Lambda::PureP => f64::INFINITY,
+            Lambda::NoSolution => f64::NAN,
         }
     }
 
@@ -39,6 +44,7 @@ impl Lambda {
         match self {
             Lambda::Finite(value) => 100.0 / (1.0 + value),
             Lambda::PureP => 0.0,
+            Lambda::NoSolution => f64::NAN,
         }
     }
 
@@ -47,6 +53,7 @@ impl Lambda {
         match self {
             Lambda::Finite(value) => format!("{value:.4}"),
             Lambda::PureP => "inf".into(),
+            Lambda::NoSolution => "none".into(),
         }
     }
 }
@@ -169,13 +176,20 @@ impl PointData {
                 if centre.model == HybridModel::Localized {
                     continue;
                 }
+                // A centre the requested model could not treat was given another model's
+                // hybrids: no value of this model there.
+                let own = centre.model == hybrids.model;
                 for hybrid in &centre.hybrids {
                     if matches!(hybrid.kind, HybridKind::Bond | HybridKind::LonePair) {
                         raw.push((
                             hybrids.model.as_str().to_string(),
                             centre.atom,
                             hybrid.partner,
-                            Lambda::from_option(hybrid.lambda),
+                            if own {
+                                Lambda::from_option(hybrid.lambda)
+                            } else {
+                                Lambda::NoSolution
+                            },
                         ));
                     }
                 }

@@ -7,6 +7,7 @@
 
 use std::fmt::Write;
 
+use super::palette::{curve_rgb, irrep_colours};
 use super::{Lambda, Scan};
 use crate::diagram::style::{format_energy, level_rgb};
 use crate::diagram::svg::{
@@ -51,6 +52,17 @@ impl Default for WalshSvgOptions {
         }
     }
 }
+
+/// What the Σε panel can and cannot say, printed under the figure when it is drawn.
+const SUM_CAPTION: [&str; 3] = [
+    "Σε: the sum of occupied orbital energies, from which Walsh's rule reads shape trends",
+    "(A. D. Walsh, J. Chem. Soc. 1953, 2260). Extended Hückel leaves out the repulsions that also change",
+    "with shape, so its Σε can favour the wrong geometry (it falls toward planar NH₃ and linear H₂O).",
+];
+/// What a × on the λ panel means.
+const UNSOLVED_CAPTION: &str = "×: Coulson's relations have no solution here (bonds at 90° or less); the geometric λ has a gap.";
+/// Caption text size relative to the figure's font.
+const CAPTION_SCALE: f64 = 0.85;
 
 const INK: [u8; 3] = [34, 34, 34];
 const FAINT: [u8; 3] = [150, 150, 150];
@@ -112,7 +124,16 @@ fn default_window(scan: &Scan) -> (f64, f64) {
 /// The Walsh diagram as SVG text.
 pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
     let (w, h, fs) = (options.width, options.height, options.font_size);
-    let (left, right, top, axis_bottom) = (80.0, w - 160.0, 50.0, h - 95.0);
+    let mut caption: Vec<&str> = Vec::new();
+    if options.lambda_panel && unsolved_anywhere(scan) {
+        caption.push(UNSOLVED_CAPTION);
+    }
+    if options.sum_panel {
+        caption.extend(SUM_CAPTION);
+    }
+    let caption_line = CAPTION_SCALE * fs * 1.25;
+    let caption_height = caption_line * caption.len() as f64;
+    let (left, right, top, axis_bottom) = (92.0, w - 160.0, 50.0, h - 95.0 - caption_height);
     // Extra panels share the x axis below the energies.
     let extra = usize::from(options.lambda_panel) + usize::from(options.sum_panel);
     let gap = 24.0;
@@ -138,7 +159,8 @@ pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
     let y_of = |e: f64| bottom - (e - e_low) / (e_high - e_low) * (bottom - top);
     let ink = colour(INK, options.greyscale);
     let faint = colour(FAINT, options.greyscale);
-    let curve_colour = |label: &str| colour(level_rgb(label).unwrap_or(INK), options.greyscale);
+    let palette = irrep_colours(scan);
+    let rgb_colour = |rgb: Option<[u8; 3]>| colour(rgb.unwrap_or(INK), options.greyscale);
 
     let mut svg = String::new();
     let title = options
@@ -229,7 +251,15 @@ pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
     let _ = writeln!(
         svg,
         "<text transform=\"translate({},{}) rotate(-90)\" text-anchor=\"middle\">orbital energy (eV)</text>",
-        number(left - 55.0),
+        number(title_x(
+            left,
+            e_ticks
+                .iter()
+                .map(|&e| tick_text(e, e_step).chars().count())
+                .max()
+                .unwrap_or(0),
+            fs
+        )),
         number((top + bottom) / 2.0)
     );
     let _ = writeln!(svg, "</g>");
@@ -246,7 +276,7 @@ pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
         } else {
             " stroke-dasharray=\"5 3\""
         };
-        let stroke = curve_colour(&curve.label);
+        let stroke = rgb_colour(curve_rgb(&palette, curve));
         let mut segment: Vec<String> = Vec::new();
         let flush = |segment: &mut Vec<String>, svg: &mut String| {
             if segment.len() > 1 {
@@ -342,7 +372,7 @@ pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
         {
             continue;
         }
-        ends.push((last, text, curve_colour(&curve.label)));
+        ends.push((last, text, rgb_colour(curve_rgb(&palette, curve))));
     }
     ends.sort_by(|a, b| b.0.total_cmp(&a.0));
     let mut y_prev = f64::NEG_INFINITY;
@@ -391,6 +421,7 @@ pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
             stroke: ink.clone(),
             dashed: false,
             end_label: "Σ occ. ε (eV)".into(),
+            unsolved: Vec::new(),
         }];
         frame.panel(
             &mut svg,
@@ -403,25 +434,17 @@ pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
     }
 
     // Legend: one swatch per irrep present, in order of first appearance.
-    let mut irreps: Vec<String> = Vec::new();
-    for curve in &scan.curves {
-        if let Some(irrep) = &curve.irrep
-            && !irreps.contains(irrep)
-        {
-            irreps.push(irrep.clone());
-        }
-    }
     let _ = writeln!(svg, "<g id=\"legend\" fill=\"{ink}\">");
-    let legend_y = h - 22.0;
+    let legend_y = h - 22.0 - caption_height;
     let mut x = left;
-    for irrep in &irreps {
+    for (irrep, rgb) in &palette {
         let _ = writeln!(
             svg,
             "<line x1=\"{0}\" y1=\"{1}\" x2=\"{2}\" y2=\"{1}\" stroke=\"{3}\" stroke-width=\"3\"/>",
             number(x),
             number(legend_y - fs * 0.35),
             number(x + 18.0),
-            curve_colour(irrep)
+            rgb_colour(*rgb)
         );
         let _ = writeln!(
             svg,
@@ -443,6 +466,16 @@ pub fn walsh_svg(scan: &Scan, options: &WalshSvgOptions) -> String {
             "solid: occupied, dashed: empty"
         }
     );
+    for (k, line) in caption.iter().enumerate() {
+        let _ = writeln!(
+            svg,
+            "<text x=\"{}\" y=\"{}\" font-size=\"{}\">{}</text>",
+            number(left),
+            number(h - 22.0 - caption_height + caption_line * (k + 1) as f64),
+            number(CAPTION_SCALE * fs),
+            escape_xml(line)
+        );
+    }
     let _ = writeln!(svg, "</g>");
     let _ = writeln!(svg, "</svg>");
     svg
@@ -454,6 +487,8 @@ struct Series {
     stroke: String,
     dashed: bool,
     end_label: String,
+    /// Points where the model has no value (drawn as a gap and a × on the panel's floor).
+    unsolved: Vec<usize>,
 }
 
 /// λ series: bonds in the σ colour, lone pairs in the n colour; geometric model solid,
@@ -484,9 +519,34 @@ fn lambda_panel_series(scan: &Scan, greyscale: bool) -> Vec<Series> {
                 stroke: colour(rgb, greyscale),
                 dashed: series.key.model == "localized",
                 end_label: format!("{kind} {}{pure_p}", series.key.model),
+                unsolved: series
+                    .values
+                    .iter()
+                    .enumerate()
+                    .filter(|(_, v)| matches!(v, Some(Lambda::NoSolution)))
+                    .map(|(k, _)| k)
+                    .collect(),
             }
         })
         .collect()
+}
+
+/// Whether a λ series has a point without a value of its model.
+fn unsolved_anywhere(scan: &Scan) -> bool {
+    scan.lambdas.iter().any(|s| {
+        s.values
+            .iter()
+            .any(|v| matches!(v, Some(Lambda::NoSolution)))
+    })
+}
+
+/// Where a rotated y-axis title goes: clear of tick labels `widest` characters wide
+/// (DejaVu Sans digits advance 0.64 em and the minus sign 0.84 em, so 0.7 em a character
+/// is safe; the title's descenders reach 0.25 em to its right, its ascenders 0.75 em to
+/// its left).
+fn title_x(left: f64, widest: usize, font_size: f64) -> f64 {
+    let labels = 8.0 + 0.7 * font_size * widest as f64;
+    (left - labels - 0.45 * font_size).max(0.8 * font_size)
 }
 
 /// What every panel shares: the x axis.
@@ -580,6 +640,8 @@ impl Frame<'_> {
             svg,
             "<g clip-path=\"url(#clip-{id})\" stroke-width=\"1.6\">"
         );
+        // × marks of points without a value, drawn unclipped (they may sit on the frame).
+        let mut marks = String::new();
         for line in series {
             let dash = if line.dashed {
                 " stroke-dasharray=\"5 3\""
@@ -611,8 +673,25 @@ impl Frame<'_> {
                     line.stroke
                 );
             }
+            for &k in &line.unsolved {
+                let (x, y) = ((self.x_of)(self.x_values[k]), bottom - 5.0);
+                let _ = writeln!(
+                    marks,
+                    "<path stroke=\"{}\" d=\"M{} {}L{} {}M{} {}L{} {}\"/>",
+                    line.stroke,
+                    number(x - 3.0),
+                    number(y - 3.0),
+                    number(x + 3.0),
+                    number(y + 3.0),
+                    number(x - 3.0),
+                    number(y + 3.0),
+                    number(x + 3.0),
+                    number(y - 3.0)
+                );
+            }
         }
         let _ = writeln!(svg, "</g>");
+        svg.push_str(&marks);
         let _ = writeln!(svg, "</g>");
         let _ = writeln!(svg, "<g id=\"panel-{id}-labels\" fill=\"{ink}\">");
         for &v in &y_ticks {
@@ -624,10 +703,15 @@ impl Frame<'_> {
                 escape_xml(&tick_text(v, y_step))
             );
         }
+        let widest = y_ticks
+            .iter()
+            .map(|&v| tick_text(v, y_step).chars().count())
+            .max()
+            .unwrap_or(0);
         let _ = writeln!(
             svg,
             "<text transform=\"translate({},{}) rotate(-90)\" text-anchor=\"middle\">{}</text>",
-            number(self.left - 55.0),
+            number(title_x(self.left, widest, fs)),
             number((top + bottom) / 2.0),
             escape_xml(y_title)
         );
