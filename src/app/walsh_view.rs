@@ -17,6 +17,37 @@ use super::scan_job::ScanJob;
 use super::state::AppState;
 use super::walsh_plot::{LAMBDA_TOP, WalshPlot};
 
+/// A λ curve's colour, as in the SVG: lone pairs in the n colour, bonds in the σ colour.
+fn lambda_colour(group: &super::walsh_plot::LambdaPlot, ink: egui::Color32) -> egui::Color32 {
+    let family = if group.name.starts_with("n(") {
+        "n"
+    } else {
+        "σ"
+    };
+    diptych::diagram::style::level_rgb(family)
+        .map_or(ink, |[r, g, b]| egui::Color32::from_rgb(r, g, b))
+}
+
+/// The λ plot's key, above it and so never over a curve: each curve's name in its colour,
+/// and the marks.
+fn lambda_key(ui: &mut egui::Ui, groups: &[super::walsh_plot::LambdaPlot], ink: egui::Color32) {
+    ui.horizontal_wrapped(|ui| {
+        for group in groups {
+            ui.colored_label(lambda_colour(group, ink), format!("━ {}", group.name));
+        }
+        if groups.iter().any(|g| !g.pure_p.is_empty()) {
+            ui.label("● pure p (λ = ∞)");
+        }
+        if groups.iter().any(|g| !g.unsolved.is_empty()) {
+            ui.label("× no solution of Coulson's relations");
+        }
+    });
+}
+
+/// One width for the three plots' y axes (points), so that their x axes line up: wide
+/// enough for "−163.0" and a rotated axis title.
+const Y_AXIS_WIDTH: f32 = 64.0;
+
 /// The coordinates offered in the window (the library's `Coordinate` without atoms).
 #[derive(Clone, Copy, Debug, PartialEq, Eq)]
 pub enum CoordinateKind {
@@ -340,6 +371,7 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
     let (low, high) = data.energy_window;
     let (x_min, x_max) = data.x_bounds;
     let response = Plot::new("walsh energies")
+        .y_axis_min_width(Y_AXIS_WIDTH)
         .default_x_bounds(x_min, x_max)
         .height(available * 0.55)
         .legend(Legend::default())
@@ -397,39 +429,38 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
         );
     });
     let groups = data.lambdas(state.walsh.lambda_model == LambdaModel::Localized);
+    lambda_key(ui, groups, ink);
     let response = Plot::new("walsh lambda")
+        .y_axis_min_width(Y_AXIS_WIDTH)
         .default_x_bounds(x_min, x_max)
         .height(available * 0.22)
-        .legend(Legend::default().position(egui_plot::Corner::LeftTop))
         .link_axis(link, [true, false])
         .y_axis_label("λ (sp^λ)")
         .default_y_bounds(0.0, LAMBDA_TOP)
         .allow_scroll(false)
         .show(ui, |plot| {
             for group in groups {
+                let colour = lambda_colour(group, ink);
                 for segment in &group.segments {
                     plot.line(
-                        Line::new(group.name.clone(), PlotPoints::from(segment.clone())).width(1.8),
+                        Line::new(group.name.clone(), PlotPoints::from(segment.clone()))
+                            .color(colour)
+                            .width(1.8),
                     );
                 }
-                if !group.pure_p.is_empty() {
-                    plot.points(
-                        Points::new(
-                            format!("{} pure p (λ = ∞)", group.name),
-                            PlotPoints::from(group.pure_p.clone()),
-                        )
-                        .radius(4.0),
-                    );
-                }
-                if !group.unsolved.is_empty() {
-                    plot.points(
-                        Points::new(
-                            format!("{} × no solution", group.name),
-                            PlotPoints::from(group.unsolved.clone()),
-                        )
-                        .shape(egui_plot::MarkerShape::Cross)
-                        .radius(5.0),
-                    );
+                let marks = [
+                    (&group.pure_p, egui_plot::MarkerShape::Circle),
+                    (&group.unsolved, egui_plot::MarkerShape::Cross),
+                ];
+                for (points, shape) in marks {
+                    if !points.is_empty() {
+                        plot.points(
+                            Points::new(group.name.clone(), PlotPoints::from(points.clone()))
+                                .shape(shape)
+                                .color(colour)
+                                .radius(4.5),
+                        );
+                    }
                 }
             }
             if let Some(value) = marker {
@@ -442,6 +473,7 @@ fn plots(ui: &mut egui::Ui, state: &mut AppState, dialogs: &Dialogs) {
     }
 
     let response = Plot::new("walsh sum")
+        .y_axis_min_width(Y_AXIS_WIDTH)
         .default_x_bounds(x_min, x_max)
         .height(available * 0.18)
         .link_axis(link, [true, false])
