@@ -207,8 +207,8 @@ pub fn show(
                     draw(ui, map);
                     ui.horizontal(|ui| {
                         ui.colored_label(POSITIVE, "positive");
-                        ui.colored_label(NEGATIVE, "negative");
-                        ui.weak("dashed: node");
+                        ui.colored_label(NEGATIVE, "negative (dashed)");
+                        ui.weak("grey dots: node");
                         if ui.button("Export map SVG…").clicked() {
                             export = true;
                         }
@@ -320,14 +320,24 @@ fn draw(ui: &mut egui::Ui, map: &OrbitalMap) {
         clip.add(egui::Shape::dashed_line(
             &points,
             Stroke::new(1.0, Color32::GRAY),
-            3.0,
+            1.5,
             3.0,
         ));
     }
     for line in &map.contours {
-        let colour = if line.level > 0.0 { POSITIVE } else { NEGATIVE };
         let points: Vec<Pos2> = line.points.iter().map(|p| to_screen(p[0], p[1])).collect();
-        clip.add(egui::Shape::line(points, Stroke::new(1.2, colour)));
+        if line.level > 0.0 {
+            clip.add(egui::Shape::line(points, Stroke::new(1.2, POSITIVE)));
+        } else {
+            // Negative lobes dashed, as in the SVG (5 on, 3 off), so the sign reads in
+            // greyscale print and for colour-blind readers too.
+            clip.add(egui::Shape::dashed_line(
+                &points,
+                Stroke::new(1.2, NEGATIVE),
+                5.0,
+                3.0,
+            ));
+        }
     }
     let ink = ui.visuals().text_color();
     for &(a, b) in &map.bonds {
