@@ -26,6 +26,8 @@ pub struct CurvePlot {
 /// one curve named after all of them.
 pub struct LambdaPlot {
     pub name: String,
+    /// Lone-pair hybrids (bonds otherwise): the colour of the curve.
+    pub lone_pair: bool,
     pub segments: Vec<Vec<[f64; 2]>>,
     /// Points where the hybrid is a pure p orbital, placed at `LAMBDA_TOP`.
     pub pure_p: Vec<[f64; 2]>,
@@ -96,8 +98,9 @@ fn lambda_plots(scan: &Scan, model: &str) -> Vec<LambdaPlot> {
                 (x, y) => x == y,
             })
     };
-    let mut groups: Vec<(String, &[Option<Lambda>])> = Vec::new();
+    let mut groups: Vec<(String, &[Option<Lambda>], bool)> = Vec::new();
     for series in scan.lambdas.iter().filter(|s| s.key.model == model) {
+        let lone_pair = series.key.partner.is_none();
         let short = series
             .name
             .trim_start_matches("λ ")
@@ -105,18 +108,18 @@ fn lambda_plots(scan: &Scan, model: &str) -> Vec<LambdaPlot> {
             .trim();
         match groups
             .iter_mut()
-            .find(|(_, values)| same(values, &series.values))
+            .find(|(_, values, kind)| *kind == lone_pair && same(values, &series.values))
         {
-            Some((name, _)) => {
+            Some((name, _, _)) => {
                 name.push_str(", ");
                 name.push_str(short);
             }
-            None => groups.push((short.to_string(), &series.values)),
+            None => groups.push((short.to_string(), &series.values, lone_pair)),
         }
     }
     groups
         .into_iter()
-        .map(|(name, values)| {
+        .map(|(name, values, lone_pair)| {
             let finite: Vec<Option<f64>> = values
                 .iter()
                 .map(|value| match value {
@@ -134,6 +137,7 @@ fn lambda_plots(scan: &Scan, model: &str) -> Vec<LambdaPlot> {
             };
             LambdaPlot {
                 name,
+                lone_pair,
                 segments: segments(scan, &finite),
                 pure_p: at(Lambda::PureP, LAMBDA_TOP),
                 unsolved: at(Lambda::NoSolution, 0.0),

@@ -19,11 +19,7 @@ use super::walsh_plot::{LAMBDA_TOP, WalshPlot};
 
 /// A λ curve's colour, as in the SVG: lone pairs in the n colour, bonds in the σ colour.
 fn lambda_colour(group: &super::walsh_plot::LambdaPlot, ink: egui::Color32) -> egui::Color32 {
-    let family = if group.name.starts_with("n(") {
-        "n"
-    } else {
-        "σ"
-    };
+    let family = if group.lone_pair { "n" } else { "σ" };
     diptych::diagram::style::level_rgb(family)
         .map_or(ink, |[r, g, b]| egui::Color32::from_rgb(r, g, b))
 }
